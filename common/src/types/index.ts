@@ -1,0 +1,5 @@
+export * from './roles';
+export * from './user';
+export * from './campaign';
+export * from './audit';
+export * from './mail';
