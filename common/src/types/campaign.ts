@@ -63,6 +63,8 @@ export interface CreateInvitationRequest {
 
 /** What the invitee sees when following the link (no account needed). */
 export interface InvitationPreview {
+  /** Lets the web app open the campaign right after the invitee accepts. */
+  campaignId: string;
   campaignName: string;
   email: string;
   roles: CampaignRole[];

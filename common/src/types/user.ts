@@ -39,3 +39,14 @@ export interface UpdateProfileRequest {
 
 /** Minimum password length enforced on every route that sets a password. */
 export const MIN_PASSWORD_LENGTH = 10;
+
+/** A user as the platform administrator sees it. */
+export interface AdminUser extends User {
+  /** A disabled account cannot sign in; its existing tokens stop working. */
+  disabled: boolean;
+}
+
+export interface UpdateUserRequest {
+  disabled?: boolean;
+  isAdmin?: boolean;
+}

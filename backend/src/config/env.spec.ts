@@ -1,0 +1,119 @@
+import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig, loadMailCatcherSettings, validateEnv } from './env';
+import { DEFAULT_STORAGE_DIR } from './paths';
+
+const DATABASE_URL = 'postgres://someone@127.0.0.1:5432/somewhere';
+
+function problemsOf(fn: () => unknown): string[] {
+  try {
+    fn();
+  } catch (error) {
+    expect(error).toBeInstanceOf(ConfigError);
+    return (error as ConfigError).problems;
+  }
+  throw new Error('expected a ConfigError');
+}
+
+describe('validateEnv', () => {
+  it('fails clearly when DATABASE_URL is missing', () => {
+    const problems = problemsOf(() => validateEnv({}));
+    expect(problems).toEqual(['DATABASE_URL is required, e.g. postgres://user@127.0.0.1:5432/dialsheet']);
+  });
+
+  it('rejects a DATABASE_URL that is not a postgres URL', () => {
+    expect(problemsOf(() => validateEnv({ DATABASE_URL: 'mysql://x/y' }))).toEqual([
+      'DATABASE_URL must be a postgres:// connection URL, e.g. postgres://user@127.0.0.1:5432/dialsheet',
+    ]);
+  });
+
+  it.each(['abc', '70000', '0', '3000.5'])('rejects PORT=%s', (port) => {
+    expect(problemsOf(() => validateEnv({ DATABASE_URL, PORT: port }))).toContain(
+      'PORT must be a whole number between 1 and 65535',
+    );
+  });
+
+  it('lists every problem at once', () => {
+    const problems = problemsOf(() =>
+      validateEnv({ PORT: 'x', JWT_EXPIRES_IN: '5', APP_URL: 'not a url', SMTP_URL: 'http://mail' }),
+    );
+    expect(problems).toHaveLength(5);
+    expect(problems.join('\n')).toMatch(/DATABASE_URL/);
+    expect(problems.join('\n')).toMatch(/JWT_EXPIRES_IN must be at least 60 seconds/);
+    expect(problems.join('\n')).toMatch(/APP_URL must be an http\(s\) URL/);
+    expect(problems.join('\n')).toMatch(/SMTP_URL must look like smtp:/);
+  });
+
+  it('fills the documented defaults', () => {
+    const s = validateEnv({ DATABASE_URL });
+    expect(s).toMatchObject({
+      port: 3000,
+      host: '127.0.0.1',
+      databaseUrl: DATABASE_URL,
+      storageDir: DEFAULT_STORAGE_DIR,
+      jwtExpiresIn: 43200,
+      smtpUrl: 'smtp://127.0.0.1:2525',
+      mailFrom: 'Dialsheet <no-reply@dialsheet.test>',
+      appUrl: 'http://127.0.0.1:3000',
+      demoPassword: 'dialsheet-demo',
+      mailCatcherDir: join(DEFAULT_STORAGE_DIR, 'mail'),
+      throttleLoginLimit: 10,
+    });
+    expect(s.jwtSecretFromEnv).toBeUndefined();
+  });
+
+  it('derives APP_URL from PORT, drops a trailing slash, treats empty variables as unset', () => {
+    expect(validateEnv({ DATABASE_URL, PORT: '4100' }).appUrl).toBe('http://127.0.0.1:4100');
+    expect(validateEnv({ DATABASE_URL, APP_URL: 'https://lab.example.org/' }).appUrl).toBe('https://lab.example.org');
+    expect(validateEnv({ DATABASE_URL, PORT: '' }).port).toBe(3000);
+  });
+});
+
+describe('loadConfig and the JWT secret', () => {
+  let dir: string;
+  beforeEach(() => {
+    dir = mkdtempSync(join(tmpdir(), 'dialsheet-config-'));
+  });
+  afterEach(() => rmSync(dir, { recursive: true, force: true }));
+
+  it('uses JWT_SECRET when given and writes no file', () => {
+    const config = loadConfig({ DATABASE_URL, STORAGE_DIR: dir, JWT_SECRET: 'a-long-enough-secret-value' });
+    expect(config.jwtSecret).toBe('a-long-enough-secret-value');
+    expect(() => statSync(join(dir, 'jwt-secret'))).toThrow();
+  });
+
+  it('generates a secret once, keeps it in STORAGE_DIR/jwt-secret with mode 600, and reuses it', () => {
+    const first = loadConfig({ DATABASE_URL, STORAGE_DIR: dir });
+    const file = join(dir, 'jwt-secret');
+    expect(statSync(file).mode & 0o777).toBe(0o600);
+    expect(readFileSync(file, 'utf8').trim()).toBe(first.jwtSecret);
+    expect(first.jwtSecret.length).toBeGreaterThanOrEqual(32);
+    expect(loadConfig({ DATABASE_URL, STORAGE_DIR: dir }).jwtSecret).toBe(first.jwtSecret);
+  });
+
+  it('refuses a too-short JWT_SECRET and a truncated secret file', () => {
+    expect(problemsOf(() => loadConfig({ DATABASE_URL, STORAGE_DIR: dir, JWT_SECRET: 'short' }))).toEqual([
+      'JWT_SECRET must be at least 16 characters (leave it unset to generate one)',
+    ]);
+    writeFileSync(join(dir, 'jwt-secret'), 'tiny\n');
+    expect(() => loadConfig({ DATABASE_URL, STORAGE_DIR: dir })).toThrow(/shorter than 16 characters/);
+  });
+});
+
+describe('loadMailCatcherSettings', () => {
+  it('needs no database and defaults to port 2525 and STORAGE_DIR/mail', () => {
+    expect(loadMailCatcherSettings({ STORAGE_DIR: '/srv/x' })).toEqual({ port: 2525, dir: '/srv/x/mail' });
+    expect(loadMailCatcherSettings({ MAIL_CATCHER_PORT: '2600', MAIL_CATCHER_DIR: '/srv/m' })).toEqual({
+      port: 2600,
+      dir: '/srv/m',
+    });
+  });
+
+  it('rejects a bad port', () => {
+    expect(problemsOf(() => loadMailCatcherSettings({ MAIL_CATCHER_PORT: 'smtp' }))).toEqual([
+      'MAIL_CATCHER_PORT must be a whole number between 1 and 65535',
+    ]);
+  });
+});

@@ -1,0 +1,17 @@
+import { AuditEntryEntity } from '../modules/audit/audit-entry.entity';
+import { PasswordResetEntity } from '../modules/auth/password-reset.entity';
+import { RevokedTokenEntity } from '../modules/auth/revoked-token.entity';
+import { CampaignMemberEntity } from '../modules/campaigns/campaign-member.entity';
+import { CampaignEntity } from '../modules/campaigns/campaign.entity';
+import { InvitationEntity } from '../modules/invitations/invitation.entity';
+import { UserEntity } from '../modules/users/user.entity';
+
+export const entities = [
+  UserEntity,
+  CampaignEntity,
+  CampaignMemberEntity,
+  InvitationEntity,
+  PasswordResetEntity,
+  RevokedTokenEntity,
+  AuditEntryEntity,
+];

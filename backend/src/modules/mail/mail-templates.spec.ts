@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import { escapeHtml, invitationMail, passwordResetMail } from './mail-templates';
+
+const appUrl = 'http://127.0.0.1:4321';
+
+describe('invitationMail', () => {
+  const mail = invitationMail({
+    appUrl,
+    token: 'tok_abc-123',
+    campaignName: 'Core <test> & co',
+    inviterName: 'Lena Lead',
+    roles: ['reader', 'checker'],
+    expiresAt: new Date('2030-01-08T09:30:00Z'),
+  });
+
+  it('links to the accept page with the token, in text and HTML', () => {
+    const link = `${appUrl}/invitations/accept?token=tok_abc-123`;
+    expect(mail.text).toContain(link);
+    expect(mail.html).toContain(`href="${link}"`);
+  });
+
+  it('names the campaign, the inviter, the roles and the expiry', () => {
+    expect(mail.subject).toBe('Lena Lead invited you to the campaign "Core <test> & co"');
+    expect(mail.text).toContain('as: Reader, Checker.');
+    expect(mail.text).toContain('2030-01-08 09:30 UTC');
+  });
+
+  it('escapes user-typed names in the HTML part', () => {
+    expect(mail.html).toContain('Core &#60;test&#62; &#38; co');
+    expect(mail.html).not.toContain('<test>');
+  });
+});
+
+describe('passwordResetMail', () => {
+  it('links to the confirm page with the token and says how long it works', () => {
+    const mail = passwordResetMail({ appUrl, token: 'r3set', name: 'Rita', validMinutes: 60 });
+    const link = `${appUrl}/reset-password/confirm?token=r3set`;
+    expect(mail.text).toContain(link);
+    expect(mail.html).toContain(`href="${link}"`);
+    expect(mail.text).toContain('for 60 minutes');
+    expect(mail.text.startsWith('Hello Rita,')).toBe(true);
+  });
+
+  it('URL-encodes tokens that are not URL-safe', () => {
+    const mail = passwordResetMail({ appUrl, token: 'a+b/c=', name: 'R', validMinutes: 60 });
+    expect(mail.text).toContain('token=a%2Bb%2Fc%3D');
+  });
+});
+
+describe('escapeHtml', () => {
+  it('escapes the five HTML-significant characters', () => {
+    expect(escapeHtml(`<a href="x">'&'</a>`)).toBe('&#60;a href=&#34;x&#34;&#62;&#39;&#38;&#39;&#60;/a&#62;');
+  });
+});

@@ -1,0 +1,99 @@
+import { CAMPAIGN_ROLE_LABELS, type CampaignRole } from '@dialsheet/common';
+
+export interface RenderedMail {
+  subject: string;
+  text: string;
+  html: string;
+}
+
+/** Campaign and person names are typed by users, so they are escaped before going into HTML. */
+export function escapeHtml(value: string): string {
+  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
+
+function layout(title: string, paragraphs: string[], link: { href: string; label: string }, footer: string): string {
+  const body = paragraphs.map((p) => `<p style="margin:0 0 12px">${p}</p>`).join('\n');
+  return `<!doctype html>
+<html><body style="font-family:'Source Sans 3',Arial,sans-serif;color:#1f2933;line-height:1.5;max-width:560px">
+<h2 style="font-weight:600;margin:0 0 16px">${escapeHtml(title)}</h2>
+${body}
+<p style="margin:20px 0"><a href="${escapeHtml(link.href)}" style="background:#0b6e4f;color:#fff;padding:10px 16px;border-radius:4px;text-decoration:none">${escapeHtml(link.label)}</a></p>
+<p style="margin:0 0 12px;font-size:13px;color:#52606d">If the button does not work, paste this address into your browser:<br>${escapeHtml(link.href)}</p>
+<p style="margin:16px 0 0;font-size:13px;color:#52606d">${escapeHtml(footer)}</p>
+</body></html>`;
+}
+
+export function invitationLink(appUrl: string, token: string): string {
+  return `${appUrl}/invitations/accept?token=${encodeURIComponent(token)}`;
+}
+
+export function passwordResetLink(appUrl: string, token: string): string {
+  return `${appUrl}/reset-password/confirm?token=${encodeURIComponent(token)}`;
+}
+
+const formatDate = (d: Date) => d.toISOString().replace('T', ' ').replace(/:\d\d\.\d{3}Z$/, ' UTC');
+
+export interface InvitationMailParams {
+  appUrl: string;
+  token: string;
+  campaignName: string;
+  inviterName: string;
+  roles: CampaignRole[];
+  expiresAt: Date;
+}
+
+export function invitationMail(p: InvitationMailParams): RenderedMail {
+  const link = invitationLink(p.appUrl, p.token);
+  const roles = p.roles.map((r) => CAMPAIGN_ROLE_LABELS[r]).join(', ');
+  const subject = `${p.inviterName} invited you to the campaign "${p.campaignName}"`;
+  const footer = `The link works once and until ${formatDate(p.expiresAt)}. If you did not expect this, ignore this message.`;
+  const text = [
+    `${p.inviterName} has invited you to join the Dialsheet campaign "${p.campaignName}" as: ${roles}.`,
+    '',
+    'Open this link to accept (you can set up your account there if you have none yet):',
+    link,
+    '',
+    footer,
+  ].join('\n');
+  const html = layout(
+    'You are invited to a campaign',
+    [
+      `${escapeHtml(p.inviterName)} has invited you to join the Dialsheet campaign <strong>${escapeHtml(p.campaignName)}</strong> as: ${escapeHtml(roles)}.`,
+      'Accept below; if you have no account yet you can set one up on the same page.',
+    ],
+    { href: link, label: 'Accept the invitation' },
+    footer,
+  );
+  return { subject, text, html };
+}
+
+export interface PasswordResetMailParams {
+  appUrl: string;
+  token: string;
+  name: string;
+  validMinutes: number;
+}
+
+export function passwordResetMail(p: PasswordResetMailParams): RenderedMail {
+  const link = passwordResetLink(p.appUrl, p.token);
+  const subject = 'Choose a new Dialsheet password';
+  const footer = `The link works once, for ${p.validMinutes} minutes. If you did not ask for it, ignore this message: your password stays as it is.`;
+  const text = [
+    `Hello ${p.name},`,
+    '',
+    'Someone (hopefully you) asked to reset the password of your Dialsheet account. Open this link to choose a new one:',
+    link,
+    '',
+    footer,
+  ].join('\n');
+  const html = layout(
+    'Choose a new password',
+    [
+      `Hello ${escapeHtml(p.name)},`,
+      'Someone (hopefully you) asked to reset the password of your Dialsheet account.',
+    ],
+    { href: link, label: 'Choose a new password' },
+    footer,
+  );
+  return { subject, text, html };
+}

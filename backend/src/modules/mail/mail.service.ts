@@ -1,0 +1,24 @@
+import type { CampaignRole } from '@dialsheet/common';
+import { Injectable } from '@nestjs/common';
+import { AppConfig } from '../../config/app-config';
+import { invitationMail, passwordResetMail } from './mail-templates';
+import { MailTransport } from './mail.transport';
+
+@Injectable()
+export class MailService {
+  constructor(
+    private readonly transport: MailTransport,
+    private readonly config: AppConfig,
+  ) {}
+
+  async sendInvitation(
+    to: string,
+    p: { token: string; campaignName: string; inviterName: string; roles: CampaignRole[]; expiresAt: Date },
+  ): Promise<void> {
+    await this.transport.send({ to, ...invitationMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+
+  async sendPasswordReset(to: string, p: { token: string; name: string; validMinutes: number }): Promise<void> {
+    await this.transport.send({ to, ...passwordResetMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+}
