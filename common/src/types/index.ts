@@ -3,3 +3,4 @@ export * from './user';
 export * from './campaign';
 export * from './audit';
 export * from './mail';
+export * from './recording';

@@ -1,0 +1,3 @@
+export * from './frame-times';
+export * from './sync';
+export * from './timecode';
