@@ -1,0 +1,78 @@
+import { useState } from 'react';
+import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import { PageLoader } from '@/components/feedback/page-loader';
+import { RouteError } from '@/components/feedback/route-error';
+
+// Pages load on demand so the sign-in page does not wait for the whole app.
+export function createAppRoutes(): RouteObject[] {
+  return [
+    {
+      path: '/',
+      HydrateFallback: () => <PageLoader />,
+      ErrorBoundary: RouteError,
+      children: [
+        { index: true, element: <Navigate to={paths.campaigns.getHref()} replace /> },
+        { path: paths.signIn.path, lazy: () => import('./routes/sign-in').then((m) => ({ Component: m.SignInRoute })) },
+        {
+          path: paths.resetPassword.path,
+          lazy: () => import('./routes/reset-password').then((m) => ({ Component: m.ResetPasswordRoute })),
+        },
+        {
+          path: paths.resetPasswordConfirm.path,
+          lazy: () => import('./routes/reset-password-confirm').then((m) => ({ Component: m.ResetPasswordConfirmRoute })),
+        },
+        {
+          path: paths.acceptInvitation.path,
+          lazy: () => import('./routes/accept-invitation').then((m) => ({ Component: m.AcceptInvitationRoute })),
+        },
+        {
+          lazy: () => import('./routes/app/root').then((m) => ({ Component: m.AppRoot })),
+          children: [
+            {
+              path: paths.campaigns.path,
+              lazy: () => import('./routes/app/campaigns').then((m) => ({ Component: m.CampaignsRoute })),
+            },
+            {
+              path: paths.campaign.path,
+              lazy: () => import('./routes/app/campaign-layout').then((m) => ({ Component: m.CampaignLayout })),
+              children: [
+                {
+                  index: true,
+                  lazy: () => import('./routes/app/campaign-overview').then((m) => ({ Component: m.CampaignOverviewRoute })),
+                },
+                {
+                  path: 'members',
+                  lazy: () => import('./routes/app/campaign-members').then((m) => ({ Component: m.CampaignMembersRoute })),
+                },
+                {
+                  path: 'audit',
+                  lazy: () => import('./routes/app/campaign-audit').then((m) => ({ Component: m.CampaignAuditRoute })),
+                },
+                {
+                  path: '*',
+                  lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })),
+                },
+              ],
+            },
+            { path: paths.account.path, lazy: () => import('./routes/app/account').then((m) => ({ Component: m.AccountRoute })) },
+            {
+              path: paths.adminMail.path,
+              lazy: () => import('./routes/app/admin-mail').then((m) => ({ Component: m.AdminMailRoute })),
+            },
+            {
+              path: paths.adminUsers.path,
+              lazy: () => import('./routes/app/admin-users').then((m) => ({ Component: m.AdminUsersRoute })),
+            },
+          ],
+        },
+        { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
+      ],
+    },
+  ];
+}
+
+export function AppRouter() {
+  const [router] = useState(() => createBrowserRouter(createAppRoutes()));
+  return <RouterProvider router={router} />;
+}

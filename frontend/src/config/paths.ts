@@ -1,0 +1,39 @@
+// Every front-end path in one place; e-mail links built by the server use the same ones.
+export const paths = {
+  signIn: {
+    path: '/sign-in',
+    getHref: (next?: string | null) =>
+      next && next !== '/' && !next.startsWith('/sign-in') ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in',
+  },
+  resetPassword: { path: '/reset-password', getHref: () => '/reset-password' },
+  resetPasswordConfirm: {
+    path: '/reset-password/confirm',
+    getHref: (token: string) => `/reset-password/confirm?token=${encodeURIComponent(token)}`,
+  },
+  acceptInvitation: {
+    path: '/invitations/accept',
+    getHref: (token: string) => `/invitations/accept?token=${encodeURIComponent(token)}`,
+  },
+  home: { path: '/', getHref: () => '/' },
+  campaigns: { path: '/campaigns', getHref: () => '/campaigns' },
+  campaign: { path: '/campaigns/:campaignId', getHref: (campaignId: string) => `/campaigns/${campaignId}` },
+  campaignMembers: {
+    path: '/campaigns/:campaignId/members',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/members`,
+  },
+  campaignAudit: {
+    path: '/campaigns/:campaignId/audit',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/audit`,
+  },
+  account: { path: '/account', getHref: () => '/account' },
+  adminMail: { path: '/admin/mail', getHref: (mailId?: string) => (mailId ? `/admin/mail?id=${encodeURIComponent(mailId)}` : '/admin/mail') },
+  adminUsers: { path: '/admin/users', getHref: () => '/admin/users' },
+} as const;
+
+/** Only same-site relative paths are accepted as a post-sign-in destination. */
+export function safeNextPath(next: string | null | undefined): string {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/sign-in')) {
+    return paths.campaigns.getHref();
+  }
+  return next;
+}
