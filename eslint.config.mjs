@@ -18,8 +18,8 @@ const features = fs.existsSync(featuresDir)
   : [];
 
 const featureZones = features.map((feature) => ({
-  target: `./frontend/src/features/${feature}`,
-  from: './frontend/src/features',
+  target: path.join(featuresDir, feature),
+  from: featuresDir,
   except: [`./${feature}`],
   message: 'A feature must not import another feature; compose them in app/routes or move shared code to components/ or lib/.',
 }));
@@ -47,6 +47,11 @@ export default tseslint.config(
     files: ['frontend/src/**/*.{ts,tsx}'],
     languageOptions: { globals: { ...globals.browser } },
     plugins: { 'import-x': importX, 'react-hooks': reactHooks },
+    settings: {
+      // Resolve '@/…' aliases and extension-less TypeScript imports, so the zones below see
+      // every import; an unresolved import would be silently skipped by no-restricted-paths.
+      'import-x/resolver': { typescript: { project: path.join(root, 'frontend/tsconfig.json') } },
+    },
     rules: {
       'import-x/no-restricted-paths': ['error', { zones: featureZones }],
       'react-hooks/rules-of-hooks': 'error',

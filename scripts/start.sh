@@ -1,0 +1,8 @@
+#!/usr/bin/env bash
+# `npm start`: checks the machine, then builds and runs Dialsheet with its own PostgreSQL.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/lib/bootstrap.sh"
+dialsheet_bootstrap
+# tsx as a loader, not its CLI: the CLI puts a wrapper process in between whose signal relay can
+# SIGKILL this script when a Ctrl-C arrives twice (terminal + npm), cutting its clean-up short.
+exec node --import tsx scripts/start.ts "$@"
