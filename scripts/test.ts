@@ -44,8 +44,8 @@ for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
 /** Steps in run order, and the steps each one needs. `npm test -- NAME...` runs only those (and what they need). */
 const steps: Record<string, string[]> = {
   lint: [],
-  'type-check': [],
   'build common': [],
+  'type-check': ['build common'],
   'common unit': [],
   'scripts unit': [],
   'backend unit': ['build common'],
@@ -278,6 +278,10 @@ async function main(): Promise<number> {
       }
       return fromExit(await run('lint', binary('eslint', repoRoot), ['.'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }), 'eslint');
     });
+    await step('build common', async () =>
+      fromExit(await run('build', 'npm', ['run', 'build', '-w', 'common'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }), 'npm run build -w common'),
+    );
+    // The backend type-checks against common's emitted declarations, so common is built first.
     await step('type-check', async () => {
       const workspaces = fromExit(await run('typecheck', 'npm', ['run', 'typecheck'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }), 'npm run typecheck');
       // The scripts are not a workspace, so the workspaces' typecheck does not cover them.
@@ -288,9 +292,6 @@ async function main(): Promise<number> {
       const notes = [workspaces.note, scripts.note].filter(Boolean);
       return { ok: workspaces.ok && scripts.ok, note: notes.length ? notes.join('; ') : undefined };
     });
-    await step('build common', async () =>
-      fromExit(await run('build', 'npm', ['run', 'build', '-w', 'common'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }), 'npm run build -w common'),
-    );
     await step('common unit', () => vitest('common unit', path.join(repoRoot, 'common'), [], baseEnv()));
     // The developer scripts' own tests, including the embedded-PostgreSQL helpers on a real cluster.
     await step('scripts unit', () => vitest('scripts unit', repoRoot, ['--config', 'scripts/vitest.config.mts'], baseEnv()));
