@@ -3,6 +3,7 @@ import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
+import type { Server } from 'node:http';
 import { AppModule } from './app.module';
 import { AppConfig } from './config/app-config';
 import { AllExceptionsFilter } from './core/filters/all-exceptions.filter';
@@ -17,7 +18,21 @@ export async function createApp(config: AppConfig, options: CreateAppOptions = {
     logger: options.logger ?? ['log', 'warn', 'error', 'fatal'],
   });
   configureApp(app);
+  configureServer(app.getHttpServer() as Server);
   return app;
+}
+
+/** A connection that moves no byte for this long is dropped (a stalled upload frees its temp file). */
+export const IDLE_SOCKET_TIMEOUT_MS = 120_000;
+
+/**
+ * Node ends any request that takes longer than five minutes to arrive, which a multi-gigabyte
+ * upload over a lab network easily does. The whole-request limit is lifted; a connection that
+ * goes silent is still closed, and slow headers are still refused (headersTimeout).
+ */
+export function configureServer(server: Server): void {
+  server.requestTimeout = 0;
+  server.setTimeout(IDLE_SOCKET_TIMEOUT_MS);
 }
 
 /** Global prefix, security headers, validation, error shape and API docs. */

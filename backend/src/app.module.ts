@@ -14,6 +14,8 @@ import { CampaignsModule } from './modules/campaigns/campaigns.module';
 import { HealthModule } from './modules/health/health.module';
 import { InvitationsModule } from './modules/invitations/invitations.module';
 import { MailModule } from './modules/mail/mail.module';
+import { RecordingsModule } from './modules/recordings/recordings.module';
+import { RunsModule } from './modules/runs/runs.module';
 import { UsersModule } from './modules/users/users.module';
 
 /** Everything under /api, which must never fall back to the web app's index.html. */
@@ -42,6 +44,8 @@ export class AppModule {
       MailModule,
       HealthModule,
       AdminModule,
+      RunsModule,
+      RecordingsModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

@@ -20,6 +20,8 @@ export default async function setup(): Promise<void> {
   await dataSource.initialize();
   try {
     await dataSource.query('DROP SCHEMA IF EXISTS public CASCADE');
+    // The job queue's own schema: jobs of an earlier run would point at rows that are gone.
+    await dataSource.query('DROP SCHEMA IF EXISTS pgboss CASCADE');
     await dataSource.query('CREATE SCHEMA public');
     await dataSource.runMigrations({ transaction: 'each' });
   } finally {

@@ -1,11 +1,19 @@
 import 'reflect-metadata';
 import { Logger } from '@nestjs/common';
+import { NestFactory } from '@nestjs/core';
 import { DataSource } from 'typeorm';
-import { ConfigError, validateEnv } from '../config/env';
+import { ConfigError, loadConfig, validateEnv } from '../config/env';
 import { buildDataSourceOptions } from '../database/data-source-options';
 import { DEMO_ACCOUNTS, DEMO_CAMPAIGN_NAME, seedDemo } from '../database/seed/demo-seed';
+import { ingestDemoVideos } from '../database/seed/demo-videos';
+import { SeedModule } from '../database/seed/seed.module';
+import { RecordingsService } from '../modules/recordings/recordings.service';
+import { RunsService } from '../modules/runs/runs.service';
 
-/** Creates the demo accounts and campaign when missing; safe to run any number of times. */
+/**
+ * Creates the demo accounts, campaign and runs when missing; with DEMO_VIDEOS_DIR set, also
+ * gives each run its generated video once. Safe to run any number of times.
+ */
 async function main(): Promise<void> {
   const logger = new Logger('seed');
   const env = validateEnv();
@@ -15,11 +23,29 @@ async function main(): Promise<void> {
     const r = await seedDemo(dataSource, env.demoPassword);
     logger.log(
       `demo data ready: ${r.usersCreated} account(s) created, campaign "${DEMO_CAMPAIGN_NAME}" ` +
-        `${r.campaignCreated ? 'created' : 'already there'}, ${r.membersAdded} membership(s) added`,
+        `${r.campaignCreated ? 'created' : 'already there'}, ${r.membersAdded} membership(s) and ${r.runsCreated} run(s) added`,
     );
     logger.log(`accounts: ${DEMO_ACCOUNTS.map((a) => a.email).join(', ')} (password from DEMO_PASSWORD)`);
   } finally {
     await dataSource.destroy();
+  }
+  if (!env.demoVideosDir) return;
+
+  // Uploading needs the JWT secret (for nothing here, but the config is whole) and the queue.
+  const config = loadConfig(process.env, { worker: false });
+  // Quiet while Nest wires itself up, then our own progress lines again.
+  const app = await NestFactory.createApplicationContext(SeedModule.forRoot(config), { logger: ['warn', 'error', 'fatal'] });
+  await app.init();
+  Logger.overrideLogger(['log', 'warn', 'error', 'fatal']);
+  try {
+    const result = await ingestDemoVideos(env.demoVideosDir, {
+      dataSource: app.get(DataSource),
+      recordings: app.get(RecordingsService),
+      runs: app.get(RunsService),
+    });
+    logger.log(`demo videos: ${result.ingested.length} stored, ${result.skipped.length} run(s) already had one or no file was found`);
+  } finally {
+    await app.close();
   }
 }
 

@@ -71,6 +71,82 @@ describe('validateEnv', () => {
   });
 });
 
+describe('recording settings', () => {
+  it('defaults to local storage, an 8 GiB upload limit, 15-minute media links and an in-process worker', () => {
+    expect(validateEnv({ DATABASE_URL })).toMatchObject({
+      uploadMaxBytes: 8 * 1024 ** 3,
+      storageDriver: 'local',
+      s3: null,
+      mediaUrlTtlSeconds: 900,
+      worker: true,
+      ffmpegPath: 'ffmpeg',
+      ffprobePath: 'ffprobe',
+    });
+  });
+
+  it('reads the S3 settings when STORAGE_DRIVER=s3', () => {
+    const s = validateEnv({
+      DATABASE_URL,
+      STORAGE_DRIVER: 's3',
+      S3_BUCKET: 'lab-videos',
+      S3_ENDPOINT: 'http://127.0.0.1:9000/',
+      S3_ACCESS_KEY_ID: 'id',
+      S3_SECRET_ACCESS_KEY: 'secret',
+      S3_FORCE_PATH_STYLE: 'true',
+      WORKER: 'off',
+      UPLOAD_MAX_BYTES: '1048576',
+    });
+    expect(s).toMatchObject({
+      storageDriver: 's3',
+      s3: {
+        bucket: 'lab-videos',
+        endpoint: 'http://127.0.0.1:9000',
+        region: 'us-east-1',
+        accessKeyId: 'id',
+        secretAccessKey: 'secret',
+        forcePathStyle: true,
+      },
+      worker: false,
+      uploadMaxBytes: 1048576,
+    });
+  });
+
+  it('names each bad recording variable', () => {
+    const problems = problemsOf(() =>
+      validateEnv({
+        DATABASE_URL,
+        STORAGE_DRIVER: 'ftp',
+        UPLOAD_MAX_BYTES: '8GB',
+        MEDIA_URL_TTL_SECONDS: '5',
+        WORKER: 'yes',
+        S3_FORCE_PATH_STYLE: '1',
+        S3_ENDPOINT: 'minio:9000',
+      }),
+    );
+    expect(problems).toEqual(
+      expect.arrayContaining([
+        'STORAGE_DRIVER must be local or s3',
+        'UPLOAD_MAX_BYTES must be a whole number of bytes, e.g. 8589934592 for 8 GiB',
+        'MEDIA_URL_TTL_SECONDS must be at least 10 seconds',
+        'WORKER must be on or off',
+        'S3_FORCE_PATH_STYLE must be true or false',
+        'S3_ENDPOINT must be an http(s) URL such as http://127.0.0.1:9000',
+      ]),
+    );
+    expect(problems).toHaveLength(6);
+  });
+
+  it('needs a bucket for S3 and both halves of a key pair', () => {
+    expect(problemsOf(() => validateEnv({ DATABASE_URL, STORAGE_DRIVER: 's3', S3_ACCESS_KEY_ID: 'id' }))).toEqual([
+      'S3_BUCKET is required when STORAGE_DRIVER=s3',
+      'S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY must be set together (or both left unset for the default credentials)',
+    ]);
+    expect(problemsOf(() => validateEnv({ DATABASE_URL, S3_BUCKET: 'Bad_Bucket' }))).toEqual([
+      'S3_BUCKET must be a bucket name: 3–63 lower-case letters, digits, dots and hyphens',
+    ]);
+  });
+});
+
 describe('loadConfig and the JWT secret', () => {
   let dir: string;
   beforeEach(() => {

@@ -4,6 +4,9 @@ import { RevokedTokenEntity } from '../modules/auth/revoked-token.entity';
 import { CampaignMemberEntity } from '../modules/campaigns/campaign-member.entity';
 import { CampaignEntity } from '../modules/campaigns/campaign.entity';
 import { InvitationEntity } from '../modules/invitations/invitation.entity';
+import { RecordingFrameTimesEntity } from '../modules/recordings/recording-frame-times.entity';
+import { RecordingEntity } from '../modules/recordings/recording.entity';
+import { RunEntity } from '../modules/runs/run.entity';
 import { UserEntity } from '../modules/users/user.entity';
 
 export const entities = [
@@ -14,4 +17,7 @@ export const entities = [
   PasswordResetEntity,
   RevokedTokenEntity,
   AuditEntryEntity,
+  RunEntity,
+  RecordingEntity,
+  RecordingFrameTimesEntity,
 ];

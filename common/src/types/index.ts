@@ -4,3 +4,4 @@ export * from './campaign';
 export * from './audit';
 export * from './mail';
 export * from './recording';
+export * from './run';

@@ -60,3 +60,35 @@ export interface Recording {
   /** User id of the uploader. */
   uploadedBy: string;
 }
+
+/** Presentation times of every frame of the video a reader steps through (the proxy once ready). */
+export interface RecordingFrames {
+  recordingId: string;
+  /** Sorted frame presentation times in seconds. */
+  times: number[];
+  keyframeTimes: number[];
+}
+
+/** What a signed media link opens. */
+export type MediaKind = 'proxy' | 'original' | 'poster';
+
+export const MEDIA_KINDS: readonly MediaKind[] = ['proxy', 'original', 'poster'];
+
+/** Short-lived links a `<video>` or `<img>` can load without an Authorization header. */
+export interface MediaUrls {
+  /** Null until the playback proxy is made. */
+  proxyUrl: string | null;
+  originalUrl: string;
+  /** Null until the poster image is made. */
+  posterUrl: string | null;
+  /** ISO 8601 time after which the links stop working. */
+  expiresAt: string;
+}
+
+/** Body of the 409 answer to an upload whose bytes are already a recording in the same campaign. */
+export interface DuplicateRecordingError {
+  statusCode: 409;
+  error: string;
+  message: string;
+  duplicateOf: { runId: string; runName: string; recordingId: string };
+}

@@ -20,6 +20,12 @@ const BODY_PARSER_MESSAGES: Record<string, string> = {
   'entity.too.large': 'The request body is too large',
 };
 
+/**
+ * Fields of an HttpException body that reach the client beside statusCode, error and message.
+ * Listed one by one so nothing else an exception carries can leak out.
+ */
+const PASSTHROUGH_FIELDS = ['duplicateOf'] as const;
+
 export function toApiError(exception: unknown): ApiError {
   // Express adapters wrap body-parser errors in an HttpException that keeps the parser's own
   // wording ("Unexpected end of JSON input"); say what is wrong in our terms instead.
@@ -39,7 +45,12 @@ export function toApiError(exception: unknown): ApiError {
       typeof message === 'string' || (Array.isArray(message) && message.every((m) => typeof m === 'string'))
         ? (message as string | string[])
         : exception.message;
-    return { statusCode, error: typeof name === 'string' ? name : error, message: text };
+    const result: ApiError = { statusCode, error: typeof name === 'string' ? name : error, message: text };
+    for (const field of PASSTHROUGH_FIELDS) {
+      const value = (body as Record<string, unknown>)[field];
+      if (value !== undefined) Object.assign(result, { [field]: value });
+    }
+    return result;
   }
   const m = (exception ?? {}) as MiddlewareError;
   const status = m.status ?? m.statusCode;

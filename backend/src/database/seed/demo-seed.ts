@@ -4,6 +4,8 @@ import { AuditEntryEntity } from '../../modules/audit/audit-entry.entity';
 import { CampaignMemberEntity } from '../../modules/campaigns/campaign-member.entity';
 import { CampaignEntity } from '../../modules/campaigns/campaign.entity';
 import { campaignSnapshot } from '../../modules/campaigns/campaign.mapper';
+import { RunEntity } from '../../modules/runs/run.entity';
+import { runSnapshot } from '../../modules/runs/run.mapper';
 import { PasswordHasher } from '../../modules/users/password-hasher.service';
 import { UserEntity } from '../../modules/users/user.entity';
 
@@ -31,10 +33,49 @@ export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
   { email: 'checker@demo.test', name: 'Chris Checker', isAdmin: false, role: 'checker' },
 ];
 
+export interface DemoRun {
+  /** Number of the generated video (run-<n>.mp4) that belongs to this run. */
+  video: number;
+  name: string;
+  runDate: string;
+  configuration: string;
+  operator: string;
+  notes: string;
+}
+
+/** The three runs of the demo bench test; the flow meter moves between the streams. */
+export const DEMO_RUNS: readonly DemoRun[] = [
+  {
+    video: 1,
+    name: 'Run 1 — meter on warm stream',
+    runDate: '2025-03-14',
+    configuration: 'Thermal mass-flow meter in the warm stream, downstream of the heater',
+    operator: 'Evan Engineer',
+    notes: 'Heater switched on at the start lamp. Panel filmed from the tripod at 30 fps.',
+  },
+  {
+    video: 2,
+    name: 'Run 2 — meter on cool stream',
+    runDate: '2025-03-14',
+    configuration: 'Thermal mass-flow meter moved to the cool stream inlet',
+    operator: 'Evan Engineer',
+    notes: 'Same fan settings as run 1; only the meter position changed.',
+  },
+  {
+    video: 3,
+    name: 'Run 3 — repeat, meter on warm stream',
+    runDate: '2025-03-14',
+    configuration: 'Thermal mass-flow meter back in the warm stream (repeat of run 1)',
+    operator: 'Evan Engineer',
+    notes: 'Repeat of run 1 to check reproducibility.',
+  },
+];
+
 export interface SeedResult {
   usersCreated: number;
   campaignCreated: boolean;
   membersAdded: number;
+  runsCreated: number;
 }
 
 /**
@@ -46,7 +87,7 @@ export async function seedDemo(dataSource: DataSource, demoPassword: string): Pr
   return dataSource.transaction(async (manager) => {
     // Two seeds started at once would otherwise both see "missing" and race on the unique e-mail.
     await manager.query(`SELECT pg_advisory_xact_lock(hashtext('dialsheet-demo-seed'))`);
-    const result: SeedResult = { usersCreated: 0, campaignCreated: false, membersAdded: 0 };
+    const result: SeedResult = { usersCreated: 0, campaignCreated: false, membersAdded: 0, runsCreated: 0 };
     const users = new Map<string, UserEntity>();
     for (const account of DEMO_ACCOUNTS) {
       let user = await manager.findOneBy(UserEntity, { email: account.email });
@@ -83,6 +124,24 @@ export async function seedDemo(dataSource: DataSource, demoPassword: string): Pr
         roles: [account.role],
       });
       result.membersAdded += 1;
+    }
+    for (const demo of DEMO_RUNS) {
+      const existing = await manager.findOneBy(RunEntity, { campaignId: campaign.id, name: demo.name });
+      if (existing) continue;
+      const run = await manager.save(
+        manager.create(RunEntity, {
+          campaignId: campaign.id,
+          name: demo.name,
+          runDate: demo.runDate,
+          configuration: demo.configuration,
+          operator: demo.operator,
+          notes: demo.notes,
+          sync: null,
+          createdById: lead.id,
+        }),
+      );
+      await audit(manager, campaign.id, lead.id, 'run', run.id, 'create', runSnapshot(run));
+      result.runsCreated += 1;
     }
     return result;
   });
