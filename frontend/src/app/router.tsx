@@ -42,6 +42,14 @@ export function createAppRoutes(): RouteObject[] {
                   lazy: () => import('./routes/app/campaign-overview').then((m) => ({ Component: m.CampaignOverviewRoute })),
                 },
                 {
+                  path: 'runs',
+                  lazy: () => import('./routes/app/campaign-runs').then((m) => ({ Component: m.CampaignRunsRoute })),
+                },
+                {
+                  path: 'runs/:runId',
+                  lazy: () => import('./routes/app/run').then((m) => ({ Component: m.RunRoute })),
+                },
+                {
                   path: 'members',
                   lazy: () => import('./routes/app/campaign-members').then((m) => ({ Component: m.CampaignMembersRoute })),
                 },

@@ -21,6 +21,14 @@ export const paths = {
     path: '/campaigns/:campaignId/members',
     getHref: (campaignId: string) => `/campaigns/${campaignId}/members`,
   },
+  campaignRuns: {
+    path: '/campaigns/:campaignId/runs',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/runs`,
+  },
+  run: {
+    path: '/campaigns/:campaignId/runs/:runId',
+    getHref: (campaignId: string, runId: string) => `/campaigns/${campaignId}/runs/${runId}`,
+  },
   campaignAudit: {
     path: '/campaigns/:campaignId/audit',
     getHref: (campaignId: string) => `/campaigns/${campaignId}/audit`,

@@ -56,7 +56,8 @@ function buildUrl(path: string, params?: QueryParams): string {
   return `${env.apiBase}${path}${search ? `?${search}` : ''}`;
 }
 
-function messageFrom(body: ApiError | null, status: number): string {
+/** The server's message for an error answer, or a plain one when it sent none. */
+export function messageFrom(body: ApiError | null, status: number): string {
   if (body && body.message) {
     return Array.isArray(body.message) ? body.message.join('; ') : body.message;
   }

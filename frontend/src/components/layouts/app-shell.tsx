@@ -10,6 +10,7 @@ import {
   UnorderedListOutlined,
   UserOutlined,
   QuestionCircleOutlined,
+  VideoCameraOutlined,
   SafetyCertificateOutlined,
 } from '@ant-design/icons';
 import { paths } from '@/config/paths';
@@ -17,6 +18,7 @@ import { useSignOut, useUser } from '@/lib/auth';
 import { BrandMark } from '@/components/ui/brand-mark';
 import { ShortcutSheet, type ShortcutEntry } from '@/components/shortcuts/shortcut-sheet';
 import { useKeySequences, type KeyBinding } from '@/components/shortcuts/use-key-sequences';
+import { PageShortcutsProvider } from '@/components/shortcuts/page-shortcuts';
 
 interface AppShellProps {
   /** The campaign picker, composed by the route so this layout stays free of feature code. */
@@ -33,12 +35,22 @@ function initials(name: string): string {
   return (parts.length > 1 ? parts[0][0] + parts[parts.length - 1][0] : (parts[0] ?? '?').slice(0, 2)).toUpperCase();
 }
 
+/** A page below a section (a run below Runs) lights up its section in the navigation. */
+function selectedNavKey(pathname: string, campaignId: string | undefined): string {
+  if (campaignId) {
+    const runs = paths.campaignRuns.getHref(campaignId);
+    if (pathname.startsWith(`${runs}/`)) return runs;
+  }
+  return pathname;
+}
+
 export function AppShell({ campaignSwitcher, children }: AppShellProps) {
   const navigate = useNavigate();
   const location = useLocation();
   const user = useUser().data;
   const signOut = useSignOut();
   const [sheetOpen, setSheetOpen] = useState(false);
+  const [pageShortcuts, setPageShortcuts] = useState<ShortcutEntry[]>([]);
   const campaignMatch = useMatch('/campaigns/:campaignId/*');
   const campaignId = campaignMatch?.params.campaignId;
 
@@ -51,6 +63,7 @@ export function AppShell({ campaignSwitcher, children }: AppShellProps) {
     if (campaignId) {
       list.push(
         { keys: ['g', 'o'], group: 'Current campaign', description: 'Overview', run: () => navigate(paths.campaign.getHref(campaignId)) },
+        { keys: ['g', 'r'], group: 'Current campaign', description: 'Runs', run: () => navigate(paths.campaignRuns.getHref(campaignId)) },
         { keys: ['g', 'm'], group: 'Current campaign', description: 'Members', run: () => navigate(paths.campaignMembers.getHref(campaignId)) },
         { keys: ['g', 't'], group: 'Current campaign', description: 'Audit trail', run: () => navigate(paths.campaignAudit.getHref(campaignId)) },
       );
@@ -100,6 +113,7 @@ export function AppShell({ campaignSwitcher, children }: AppShellProps) {
             label: 'This campaign',
             children: [
               { key: paths.campaign.getHref(campaignId), icon: <DashboardOutlined />, label: <Link to={paths.campaign.getHref(campaignId)}>Overview</Link> },
+              { key: paths.campaignRuns.getHref(campaignId), icon: <VideoCameraOutlined />, label: <Link to={paths.campaignRuns.getHref(campaignId)}>Runs</Link> },
               { key: paths.campaignMembers.getHref(campaignId), icon: <TeamOutlined />, label: <Link to={paths.campaignMembers.getHref(campaignId)}>Members</Link> },
               { key: paths.campaignAudit.getHref(campaignId), icon: <AuditOutlined />, label: <Link to={paths.campaignAudit.getHref(campaignId)}>Audit trail</Link> },
             ],
@@ -143,14 +157,18 @@ export function AppShell({ campaignSwitcher, children }: AppShellProps) {
       <Layout>
         <Layout.Sider width={212} className="app-sider" breakpoint="md" collapsedWidth={0} theme="light">
           <nav aria-label="Main">
-            <Menu mode="inline" selectedKeys={[location.pathname]} items={navItems} className="app-nav" />
+            <Menu mode="inline" selectedKeys={[selectedNavKey(location.pathname, campaignId)]} items={navItems} className="app-nav" />
           </nav>
         </Layout.Sider>
         <Layout.Content className="app-content">
-          <div className="app-content-inner">{children ?? <Outlet />}</div>
+          <div className="app-content-inner">
+            <PageShortcutsProvider suspended={sheetOpen} onChange={setPageShortcuts}>
+              {children ?? <Outlet />}
+            </PageShortcutsProvider>
+          </div>
         </Layout.Content>
       </Layout>
-      <ShortcutSheet open={sheetOpen} onClose={() => setSheetOpen(false)} shortcuts={shortcuts} />
+      <ShortcutSheet open={sheetOpen} onClose={() => setSheetOpen(false)} shortcuts={[...shortcuts, ...pageShortcuts]} />
     </Layout>
   );
 }

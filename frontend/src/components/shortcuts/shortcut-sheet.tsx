@@ -1,9 +1,30 @@
 import { Modal, Table, Typography } from 'antd';
 
 export interface ShortcutEntry {
+  /** KeyboardEvent.key values, e.g. ['g', 'c'] or ['ArrowRight']. */
   keys: readonly string[];
+  /** Shown as "Shift +" before the key. */
+  shift?: boolean;
   description: string;
   group: string;
+}
+
+// How a key value reads on a key cap.
+const KEY_NAMES: Record<string, string> = {
+  ' ': 'Space',
+  ArrowLeft: '←',
+  ArrowRight: '→',
+  ArrowUp: '↑',
+  ArrowDown: '↓',
+  Escape: 'Esc',
+};
+
+export function keyName(key: string): string {
+  return KEY_NAMES[key] ?? key;
+}
+
+export function shortcutId(entry: Pick<ShortcutEntry, 'keys' | 'shift'>): string {
+  return `${entry.shift ? 'shift+' : ''}${entry.keys.join(' ')}`;
 }
 
 interface ShortcutSheetProps {
@@ -12,13 +33,19 @@ interface ShortcutSheetProps {
   shortcuts: readonly ShortcutEntry[];
 }
 
-function KeyCaps({ keys }: { keys: readonly string[] }) {
+function KeyCaps({ keys, shift }: { keys: readonly string[]; shift?: boolean }) {
   return (
     <span className="key-caps">
+      {shift ? (
+        <>
+          <kbd>Shift</kbd>
+          <span className="key-then">+</span>
+        </>
+      ) : null}
       {keys.map((key, index) => (
         <span key={`${key}-${index}`}>
           {index > 0 ? <span className="key-then">then</span> : null}
-          <kbd>{key}</kbd>
+          <kbd>{keyName(key)}</kbd>
         </span>
       ))}
     </span>
@@ -40,10 +67,10 @@ export function ShortcutSheet({ open, onClose, shortcuts }: ShortcutSheetProps) 
             size="small"
             pagination={false}
             showHeader={false}
-            rowKey={(row) => row.keys.join(' ')}
+            rowKey={shortcutId}
             dataSource={shortcuts.filter((s) => s.group === group)}
             columns={[
-              { key: 'keys', width: 150, render: (_, row) => <KeyCaps keys={row.keys} /> },
+              { key: 'keys', width: 150, render: (_, row) => <KeyCaps keys={row.keys} shift={row.shift} /> },
               { key: 'description', dataIndex: 'description' },
             ]}
           />

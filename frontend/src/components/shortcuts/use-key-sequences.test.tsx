@@ -1,7 +1,7 @@
 import { describe, expect, it, vi } from 'vitest';
 import { render } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { isTypingTarget, useKeySequences, type KeyBinding } from './use-key-sequences';
+import { controlOwnsKey, isTypingTarget, useKeySequences, type KeyBinding } from './use-key-sequences';
 
 function Harness({ bindings }: { bindings: KeyBinding[] }) {
   useKeySequences(bindings);
@@ -9,6 +9,7 @@ function Harness({ bindings }: { bindings: KeyBinding[] }) {
     <div>
       <input aria-label="text" />
       <input aria-label="tick" type="checkbox" />
+      <button type="button">press</button>
     </div>
   );
 }
@@ -52,5 +53,55 @@ describe('useKeySequences', () => {
     render(<Harness bindings={[{ keys: ['g', 'c'], run }]} />);
     await user.keyboard('gxc');
     expect(run).not.toHaveBeenCalled();
+  });
+});
+
+describe('keys a focused control uses itself', () => {
+  it('leaves Space and Enter to buttons and links, arrows to sliders and radios', () => {
+    const button = document.createElement('button');
+    const link = document.createElement('a');
+    const slider = document.createElement('div');
+    slider.setAttribute('role', 'slider');
+    const radio = Object.assign(document.createElement('input'), { type: 'radio' });
+    const plain = document.createElement('div');
+    expect(controlOwnsKey(button, ' ')).toBe(true);
+    expect(controlOwnsKey(link, 'Enter')).toBe(true);
+    expect(controlOwnsKey(button, 'ArrowRight')).toBe(false);
+    expect(controlOwnsKey(slider, 'ArrowLeft')).toBe(true);
+    expect(controlOwnsKey(radio, 'ArrowDown')).toBe(true);
+    expect(controlOwnsKey(plain, ' ')).toBe(false);
+  });
+});
+
+describe('Shift in bindings', () => {
+  it('tells a key from Shift + key when a binding asks, and ignores Shift when it does not', async () => {
+    const user = userEvent.setup();
+    const step = vi.fn();
+    const jump = vi.fn();
+    const help = vi.fn();
+    render(
+      <Harness
+        bindings={[
+          { keys: ['ArrowRight'], shift: false, run: step },
+          { keys: ['ArrowRight'], shift: true, run: jump },
+          { keys: ['?'], run: help },
+        ]}
+      />,
+    );
+    await user.keyboard('{ArrowRight}{Shift>}{ArrowRight}{/Shift}?');
+    expect(step).toHaveBeenCalledTimes(1);
+    expect(jump).toHaveBeenCalledTimes(1);
+    expect(help).toHaveBeenCalledTimes(1);
+  });
+
+  it('lets Space press a focused button rather than run a shortcut', async () => {
+    const user = userEvent.setup();
+    const space = vi.fn();
+    const { getByRole } = render(<Harness bindings={[{ keys: [' '], run: space }]} />);
+    await user.keyboard(' ');
+    expect(space).toHaveBeenCalledTimes(1);
+    await user.click(getByRole('button', { name: 'press' }));
+    await user.keyboard(' ');
+    expect(space).toHaveBeenCalledTimes(1);
   });
 });

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Button, Card, Col, Row, Tag } from 'antd';
-import { AuditOutlined, EditOutlined, RightOutlined, TeamOutlined } from '@ant-design/icons';
+import { AuditOutlined, EditOutlined, RightOutlined, TeamOutlined, VideoCameraOutlined } from '@ant-design/icons';
 import { paths } from '@/config/paths';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
@@ -45,8 +45,11 @@ export function CampaignOverviewRoute() {
           <CampaignSummary campaign={campaign} />
         </Col>
         <Col xs={24} xl={8}>
-          <Card size="small" className="section-card" title="People and record">
+          <Card size="small" className="section-card" title="Runs, people and record">
             <nav className="overview-links" aria-label="Campaign pages">
+              <Link to={paths.campaignRuns.getHref(campaign.id)} className="overview-link">
+                <VideoCameraOutlined /> Runs <span className="overview-link-count">videos and sync</span> <RightOutlined />
+              </Link>
               <Link to={paths.campaignMembers.getHref(campaign.id)} className="overview-link">
                 <TeamOutlined /> Members <span className="overview-link-count">{campaign.memberCount}</span> <RightOutlined />
               </Link>

@@ -32,7 +32,7 @@ const KNOWN_ENTITY_LABELS: Record<string, string> = {
   recording: 'Recording',
 };
 
-export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation'];
+export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording'];
 
 export function entityLabel(entityType: string): string {
   return KNOWN_ENTITY_LABELS[entityType] ?? entityType.replace(/[_-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());

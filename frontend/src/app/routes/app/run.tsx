@@ -1,0 +1,112 @@
+import { useCallback, useRef, useState } from 'react';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Breadcrumb, Button, Col, Row, Skeleton, Space } from 'antd';
+import { EditOutlined } from '@ant-design/icons';
+import { paths } from '@/config/paths';
+import { PageHeader } from '@/components/ui/page-header';
+import { ErrorState } from '@/components/feedback/error-state';
+import type { FrameInfo, FramePlayerHandle } from '@/components/video/frame-player';
+import { useDocumentTitle } from '@/hooks/use-document-title';
+import { isApiError } from '@/lib/api-client';
+import { useCampaign } from '@/features/campaigns/api/get-campaign';
+import { useRun } from '@/features/runs/api/get-run';
+import { RunDetails } from '@/features/runs/components/run-details';
+import { RunFormModal } from '@/features/runs/components/run-form-modal';
+import { DeleteRunButton } from '@/features/runs/components/delete-run-button';
+import { SyncPanel, type SyncFrame } from '@/features/runs/components/sync-panel';
+import { useRecording } from '@/features/recordings/api/get-recording';
+import { RecordingPanel } from '@/features/recordings/components/recording-panel';
+import { RecordingFacts } from '@/features/recordings/components/recording-facts';
+
+export function RunRoute() {
+  const { campaignId = '', runId = '' } = useParams();
+  const navigate = useNavigate();
+  const { data: campaign } = useCampaign({ campaignId });
+  const run = useRun({ runId });
+  const recording = useRecording({ runId });
+  const [editing, setEditing] = useState(false);
+  const playerRef = useRef<FramePlayerHandle>(null);
+  const [frame, setFrame] = useState<SyncFrame | null>(null);
+  useDocumentTitle(run.data ? `${run.data.name} · Runs` : 'Run');
+
+  const onFrameChange = useCallback((next: FrameInfo) => {
+    // The sync panel needs the frame, not every repaint: keep the same object while it stays.
+    setFrame((previous) => (previous && previous.index === next.index && previous.pts === next.pts ? previous : { index: next.index, pts: next.pts }));
+  }, []);
+  const showTime = useCallback((t: number) => playerRef.current?.showTime(t), []);
+
+  if (!campaign) return null;
+  if (run.isPending) return <Skeleton active paragraph={{ rows: 10 }} />;
+  if (run.isError || run.data.campaignId !== campaign.id) {
+    const missing = run.isError ? isApiError(run.error, 404) : true;
+    return (
+      <ErrorState
+        error={run.error}
+        title={missing ? 'Run not found' : undefined}
+        description={missing ? 'It does not exist in this campaign, or it was deleted.' : undefined}
+        onRetry={() => void run.refetch()}
+        extra={
+          <Link to={paths.campaignRuns.getHref(campaign.id)}>
+            <Button>All runs</Button>
+          </Link>
+        }
+      />
+    );
+  }
+
+  const current = run.data;
+  const canEdit = campaign.myRoles.includes('lead') || campaign.myRoles.includes('engineer');
+  const ready = recording.data?.status === 'ready';
+  const subtitle = [current.runDate, current.configuration].filter(Boolean).join(' · ');
+
+  return (
+    <>
+      <Breadcrumb
+        className="page-breadcrumb"
+        items={[{ title: <Link to={paths.campaignRuns.getHref(campaign.id)}>Runs</Link> }, { title: current.name }]}
+      />
+      <PageHeader
+        title={current.name}
+        subtitle={subtitle || undefined}
+        actions={
+          canEdit ? (
+            <Space size={8}>
+              <Button icon={<EditOutlined />} onClick={() => setEditing(true)}>
+                Edit
+              </Button>
+              <DeleteRunButton run={current} onDeleted={() => navigate(paths.campaignRuns.getHref(campaign.id), { replace: true })} />
+            </Space>
+          ) : null
+        }
+      />
+      <Row gutter={[16, 16]}>
+        <Col xs={24} xl={16}>
+          <RecordingPanel
+            runId={current.id}
+            campaignId={campaign.id}
+            canEdit={canEdit}
+            sync={current.sync}
+            playerRef={playerRef}
+            onFrameChange={onFrameChange}
+          />
+        </Col>
+        <Col xs={24} xl={8}>
+          <Space orientation="vertical" size={16} className="full-width">
+            <SyncPanel run={current} canEdit={canEdit} currentFrame={ready ? frame : null} onShowTime={ready ? showTime : undefined} />
+            {recording.data ? <RecordingFacts recording={recording.data} /> : null}
+            <RunDetails run={current} />
+          </Space>
+        </Col>
+      </Row>
+      {canEdit ? (
+        <RunFormModal
+          campaignId={campaign.id}
+          run={current}
+          open={editing}
+          onClose={() => setEditing(false)}
+          onSaved={() => setEditing(false)}
+        />
+      ) : null}
+    </>
+  );
+}
