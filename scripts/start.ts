@@ -142,7 +142,16 @@ async function main(): Promise<void> {
     mailCatcherDir,
     demoPassword: config.demoPassword,
     appUrl: config.appUrl ?? `http://127.0.0.1:${config.port}`,
+    demoVideosDir: path.join(config.storageDir, 'demo-videos'),
   };
+  // The demo runs' recordings are generated once with ffmpeg and cached; the generator skips runs
+  // whose files are already there and unchanged, so later starts pay nothing here.
+  say('preparing the demo videos (first start only: about two minutes) ...');
+  const demo = await run('demo', process.execPath, ['--import', 'tsx', 'scripts/demo/generate-videos.ts', '--out', settings.demoVideosDir!], {
+    cwd: repoRoot,
+  });
+  guard();
+  if (!succeeded(demo)) throw new Error(`the demo video generator ${describeExit(demo)}; see the [demo] lines above`);
   await migrateAndSeed(settings);
   guard();
   await startApp(services, settings);

@@ -14,6 +14,8 @@ export interface AppSettings {
   mailCatcherDir: string;
   demoPassword: string;
   appUrl: string;
+  /** Generated demo recordings the seed attaches to the demo runs (once); absent in tests. */
+  demoVideosDir?: string;
 }
 
 export function appEnvironment(settings: AppSettings): NodeJS.ProcessEnv {
@@ -27,6 +29,7 @@ export function appEnvironment(settings: AppSettings): NodeJS.ProcessEnv {
     MAIL_CATCHER_DIR: settings.mailCatcherDir,
     DEMO_PASSWORD: settings.demoPassword,
     APP_URL: settings.appUrl,
+    ...(settings.demoVideosDir ? { DEMO_VIDEOS_DIR: settings.demoVideosDir } : {}),
   };
 }
 
