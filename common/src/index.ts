@@ -1,2 +1,3 @@
 export * from './types';
 export * from './time';
+export * from './readings';

@@ -5,3 +5,4 @@ export * from './audit';
 export * from './mail';
 export * from './recording';
 export * from './run';
+export * from './reading';
