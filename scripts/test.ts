@@ -284,13 +284,19 @@ async function main(): Promise<number> {
     // The backend type-checks against common's emitted declarations, so common is built first.
     await step('type-check', async () => {
       const workspaces = fromExit(await run('typecheck', 'npm', ['run', 'typecheck'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }), 'npm run typecheck');
-      // The scripts are not a workspace, so the workspaces' typecheck does not cover them.
-      const scripts = fromExit(
-        await run('typecheck', binary('tsc', repoRoot), ['-p', 'scripts/tsconfig.json'], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }),
-        'tsc -p scripts/tsconfig.json',
-      );
-      const notes = [workspaces.note, scripts.note].filter(Boolean);
-      return { ok: workspaces.ok && scripts.ok, note: notes.length ? notes.join('; ') : undefined };
+      // The scripts and benchmarks are not workspaces, so the workspaces' typecheck does not cover them.
+      const others = [];
+      for (const project of ['scripts/tsconfig.json', 'bench/tsconfig.json']) {
+        others.push(
+          fromExit(
+            await run('typecheck', binary('tsc', repoRoot), ['-p', project], { cwd: repoRoot, env: baseEnv(), output: 'inherit' }),
+            `tsc -p ${project}`,
+          ),
+        );
+      }
+      const all = [workspaces, ...others];
+      const notes = all.map((outcome) => outcome.note).filter(Boolean);
+      return { ok: all.every((outcome) => outcome.ok), note: notes.length ? notes.join('; ') : undefined };
     });
     await step('common unit', () => vitest('common unit', path.join(repoRoot, 'common'), [], baseEnv()));
     // The developer scripts' own tests, including the embedded-PostgreSQL helpers on a real cluster.
