@@ -11,6 +11,7 @@ import { AdminModule } from './modules/admin/admin.module';
 import { AuditModule } from './modules/audit/audit.module';
 import { AuthModule } from './modules/auth/auth.module';
 import { CampaignsModule } from './modules/campaigns/campaigns.module';
+import { ChannelsModule } from './modules/channels/channels.module';
 import { HealthModule } from './modules/health/health.module';
 import { InvitationsModule } from './modules/invitations/invitations.module';
 import { MailModule } from './modules/mail/mail.module';
@@ -46,6 +47,7 @@ export class AppModule {
       AdminModule,
       RunsModule,
       RecordingsModule,
+      ChannelsModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

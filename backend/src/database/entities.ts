@@ -3,6 +3,8 @@ import { PasswordResetEntity } from '../modules/auth/password-reset.entity';
 import { RevokedTokenEntity } from '../modules/auth/revoked-token.entity';
 import { CampaignMemberEntity } from '../modules/campaigns/campaign-member.entity';
 import { CampaignEntity } from '../modules/campaigns/campaign.entity';
+import { ChannelEntity } from '../modules/channels/channel.entity';
+import { DisplayRegionEntity } from '../modules/channels/display-region.entity';
 import { InvitationEntity } from '../modules/invitations/invitation.entity';
 import { RecordingFrameTimesEntity } from '../modules/recordings/recording-frame-times.entity';
 import { RecordingEntity } from '../modules/recordings/recording.entity';
@@ -20,4 +22,6 @@ export const entities = [
   RunEntity,
   RecordingEntity,
   RecordingFrameTimesEntity,
+  ChannelEntity,
+  DisplayRegionEntity,
 ];

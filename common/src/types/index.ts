@@ -6,3 +6,4 @@ export * from './mail';
 export * from './recording';
 export * from './run';
 export * from './reading';
+export * from './channel';

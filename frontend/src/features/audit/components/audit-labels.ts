@@ -30,9 +30,11 @@ const KNOWN_ENTITY_LABELS: Record<string, string> = {
   invitation: 'Invitation',
   run: 'Run',
   recording: 'Recording',
+  channel: 'Channel',
+  'display-region': 'Display region',
 };
 
-export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording'];
+export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region'];
 
 export function entityLabel(entityType: string): string {
   return KNOWN_ENTITY_LABELS[entityType] ?? entityType.replace(/[_-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());
