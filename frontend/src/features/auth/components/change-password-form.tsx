@@ -1,7 +1,7 @@
 import { Alert, Button, Form, Input } from 'antd';
 import { errorMessage } from '@/lib/api-client';
 import { useChangePassword } from '../api/change-password';
-import { NewPasswordFields } from './new-password-fields';
+import { NewPasswordFields } from '@/components/forms/new-password-fields';
 
 interface ChangePasswordValues {
   currentPassword: string;

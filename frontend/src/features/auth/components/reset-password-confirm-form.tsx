@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { useConfirmPasswordReset } from '../api/confirm-password-reset';
-import { NewPasswordFields } from './new-password-fields';
+import { NewPasswordFields } from '@/components/forms/new-password-fields';
 
 export function ResetPasswordConfirmForm({ token }: { token: string }) {
   const confirm = useConfirmPasswordReset();

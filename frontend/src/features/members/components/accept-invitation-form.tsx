@@ -1,8 +1,9 @@
 import { Alert, Button, Descriptions, Divider, Form, Input } from 'antd';
-import { MIN_PASSWORD_LENGTH, type InvitationPreview, type LoginResponse } from '@dialsheet/common';
+import type { InvitationPreview, LoginResponse } from '@dialsheet/common';
 import { errorMessage } from '@/lib/api-client';
 import { RoleTags } from '@/components/ui/role-tags';
 import { DateText } from '@/components/ui/date-text';
+import { NewPasswordFields } from '@/components/forms/new-password-fields';
 import { useAcceptInvitation } from '../api/accept-invitation';
 
 interface AcceptInvitationFormProps {
@@ -63,33 +64,7 @@ export function AcceptInvitationForm({ token, preview, onAccepted }: AcceptInvit
             >
               <Input autoComplete="name" autoFocus />
             </Form.Item>
-            <Form.Item
-              label="Choose a password"
-              name="password"
-              extra={`At least ${MIN_PASSWORD_LENGTH} characters.`}
-              rules={[
-                { required: true, message: 'Choose a password' },
-                { min: MIN_PASSWORD_LENGTH, message: `Use at least ${MIN_PASSWORD_LENGTH} characters` },
-              ]}
-            >
-              <Input.Password autoComplete="new-password" />
-            </Form.Item>
-            <Form.Item
-              label="Repeat the password"
-              name="confirmPassword"
-              dependencies={['password']}
-              rules={[
-                { required: true, message: 'Repeat the password' },
-                ({ getFieldValue }) => ({
-                  validator: (_, value) =>
-                    !value || getFieldValue('password') === value
-                      ? Promise.resolve()
-                      : Promise.reject(new Error('The two passwords differ')),
-                }),
-              ]}
-            >
-              <Input.Password autoComplete="new-password" />
-            </Form.Item>
+            <NewPasswordFields label="Choose a password" name="password" />
           </>
         ) : (
           <Form.Item

@@ -1,13 +1,16 @@
 import { Form, Input } from 'antd';
 import { MIN_PASSWORD_LENGTH } from '@dialsheet/common';
 
-/** "New password" and its confirmation, with the same length rule the server applies. */
-export function NewPasswordFields({ label = 'New password' }: { label?: string }) {
+/**
+ * A new password and its confirmation, with the same length rule the server applies. Shared by
+ * the reset, change-password and accept-invitation forms; `name` is the form field it fills.
+ */
+export function NewPasswordFields({ label = 'New password', name = 'newPassword' }: { label?: string; name?: string }) {
   return (
     <>
       <Form.Item
         label={label}
-        name="newPassword"
+        name={name}
         extra={`At least ${MIN_PASSWORD_LENGTH} characters.`}
         rules={[
           { required: true, message: 'Choose a password' },
@@ -19,12 +22,12 @@ export function NewPasswordFields({ label = 'New password' }: { label?: string }
       <Form.Item
         label="Repeat the password"
         name="confirmPassword"
-        dependencies={['newPassword']}
+        dependencies={[name]}
         rules={[
           { required: true, message: 'Repeat the password' },
           ({ getFieldValue }) => ({
             validator: (_, value) =>
-              !value || getFieldValue('newPassword') === value
+              !value || getFieldValue(name) === value
                 ? Promise.resolve()
                 : Promise.reject(new Error('The two passwords differ')),
           }),
