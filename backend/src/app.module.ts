@@ -17,6 +17,7 @@ import { InvitationsModule } from './modules/invitations/invitations.module';
 import { MailModule } from './modules/mail/mail.module';
 import { RecordingsModule } from './modules/recordings/recordings.module';
 import { RunsModule } from './modules/runs/runs.module';
+import { SheetsModule } from './modules/sheets/sheets.module';
 import { UsersModule } from './modules/users/users.module';
 
 /** Everything under /api, which must never fall back to the web app's index.html. */
@@ -48,6 +49,7 @@ export class AppModule {
       RunsModule,
       RecordingsModule,
       ChannelsModule,
+      SheetsModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

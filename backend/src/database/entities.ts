@@ -9,6 +9,8 @@ import { InvitationEntity } from '../modules/invitations/invitation.entity';
 import { RecordingFrameTimesEntity } from '../modules/recordings/recording-frame-times.entity';
 import { RecordingEntity } from '../modules/recordings/recording.entity';
 import { RunEntity } from '../modules/runs/run.entity';
+import { SheetChannelEntity } from '../modules/sheets/sheet-channel.entity';
+import { SheetEntity } from '../modules/sheets/sheet.entity';
 import { UserEntity } from '../modules/users/user.entity';
 
 export const entities = [
@@ -24,4 +26,6 @@ export const entities = [
   RecordingFrameTimesEntity,
   ChannelEntity,
   DisplayRegionEntity,
+  SheetEntity,
+  SheetChannelEntity,
 ];

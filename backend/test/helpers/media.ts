@@ -42,6 +42,13 @@ export class TestMedia {
     );
   }
 
+  /** Just over a minute at a low size and rate (62 s, 160×120, 5 fps): room for minute-long sheets, quick to process. */
+  minute(): Promise<string> {
+    return this.once('minute.mp4', (out) =>
+      ffmpeg(['-f', 'lavfi', '-i', 'testsrc2=s=160x120:r=5:d=62', '-c:v', 'libx264', '-preset', 'ultrafast', '-pix_fmt', 'yuv420p', out]),
+    );
+  }
+
   /** Variable frame rate: 30 fps, except every other frame dropped between 1 s and 2 s. */
   vfr(): Promise<string> {
     return this.once('vfr.mp4', (out) =>

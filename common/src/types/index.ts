@@ -7,3 +7,4 @@ export * from './recording';
 export * from './run';
 export * from './reading';
 export * from './channel';
+export * from './sheet';

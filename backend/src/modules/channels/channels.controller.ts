@@ -49,7 +49,7 @@ export class ChannelsController {
 
   @Delete(':channelId')
   @HttpCode(204)
-  @ApiNoContentResponse({ description: 'The channel and its display regions in every run are gone' })
+  @ApiNoContentResponse({ description: 'The channel and its display regions in every run are gone; refused (409) while a sheet reads it' })
   @ApiOperation({ summary: 'Delete a channel (lead, engineer)' })
   remove(@CurrentUser() user: AuthUser, @Param('channelId') channelId: string): Promise<void> {
     return this.channels.remove(user, channelId);

@@ -20,6 +20,9 @@ export const CHANNEL_WRITERS: readonly CampaignRole[] = ['lead', 'engineer'];
 
 export const duplicateChannelName = (name: string) => `A channel named “${name}” already exists in this campaign`;
 
+export const channelInUse = (sheet: string, run: string, sheets: number) =>
+  `This channel is used by sheet “${sheet}” of run “${run}”${sheets > 1 ? ` and ${sheets - 1} other sheet${sheets > 2 ? 's' : ''}` : ''}; take it off ${sheets > 1 ? 'those sheets' : 'that sheet'} before deleting it`;
+
 function isUniqueViolation(error: unknown, constraint: string): boolean {
   const driverError = error instanceof QueryFailedError ? (error.driverError as { code?: string; constraint?: string }) : null;
   return driverError?.code === '23505' && driverError.constraint === constraint;
@@ -131,6 +134,14 @@ export class ChannelsService {
   async remove(user: AuthUser, channelId: string): Promise<void> {
     await this.dataSource.transaction(async (manager) => {
       const channel = await this.requireChannel(user, channelId, manager);
+      // Sheets keep their channels by foreign key; say which sheet holds it rather than fail there.
+      const [used] = (await manager.query(
+        `SELECT s.name AS sheet, r.name AS run, count(*) OVER ()::int AS total
+           FROM sheet_channels sc JOIN sheets s ON s.id = sc.sheet_id JOIN runs r ON r.id = s.run_id
+          WHERE sc.channel_id = $1 ORDER BY s.created_at, s.id LIMIT 1`,
+        [channel.id],
+      )) as Array<{ sheet: string; run: string; total: number }>;
+      if (used) throw new ConflictException(channelInUse(used.sheet, used.run, used.total));
       const [{ regions }] = (await manager.query('SELECT count(*)::int AS regions FROM display_regions WHERE channel_id = $1', [
         channel.id,
       ])) as Array<{ regions: number }>;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { escapeHtml, invitationMail, passwordResetMail } from './mail-templates';
+import { escapeHtml, invitationMail, passwordResetMail, sheetAssignmentMail } from './mail-templates';
 
 const appUrl = 'http://127.0.0.1:4321';
 
@@ -50,5 +50,38 @@ describe('passwordResetMail', () => {
 describe('escapeHtml', () => {
   it('escapes the five HTML-significant characters', () => {
     expect(escapeHtml(`<a href="x">'&'</a>`)).toBe('&#60;a href=&#34;x&#34;&#62;&#39;&#38;&#39;&#60;/a&#62;');
+  });
+});
+
+describe('sheetAssignmentMail', () => {
+  const params = {
+    appUrl,
+    campaignId: 'c1',
+    sheetId: 's1',
+    name: 'Rita',
+    assignerName: 'Lee <lead>',
+    sheetName: 'Warm-up',
+    runName: 'Run 1',
+    campaignName: 'Core soak',
+    rowCount: 31,
+    channelCount: 3,
+  };
+
+  it('links the reader to the sheet and says which pass is theirs', () => {
+    const mail = sheetAssignmentMail({ ...params, pass: 'reader' });
+    const link = `${appUrl}/campaigns/c1/sheets/s1`;
+    expect(mail.subject).toBe('Sheet "Warm-up" is yours to read');
+    expect(mail.text).toContain(link);
+    expect(mail.html).toContain(`href="${link}"`);
+    expect(mail.text).toContain('first pass');
+    expect(mail.text).toContain('31 rows × 3 channels');
+  });
+
+  it('tells the checker the second pass is blind, and escapes names in HTML', () => {
+    const mail = sheetAssignmentMail({ ...params, pass: 'checker' });
+    expect(mail.subject).toBe('Sheet "Warm-up" is yours to check');
+    expect(mail.text).toContain('blind second pass');
+    expect(mail.html).toContain('Lee &#60;lead&#62;');
+    expect(mail.html).not.toContain('<lead>');
   });
 });

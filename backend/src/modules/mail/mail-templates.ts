@@ -97,3 +97,55 @@ export function passwordResetMail(p: PasswordResetMailParams): RenderedMail {
   );
   return { subject, text, html };
 }
+
+export function sheetLink(appUrl: string, campaignId: string, sheetId: string): string {
+  return `${appUrl}/campaigns/${encodeURIComponent(campaignId)}/sheets/${encodeURIComponent(sheetId)}`;
+}
+
+export interface SheetAssignmentMailParams {
+  appUrl: string;
+  campaignId: string;
+  sheetId: string;
+  /** Which pass this person types. */
+  pass: 'reader' | 'checker';
+  name: string;
+  assignerName: string;
+  sheetName: string;
+  runName: string;
+  campaignName: string;
+  rowCount: number;
+  channelCount: number;
+}
+
+export function sheetAssignmentMail(p: SheetAssignmentMailParams): RenderedMail {
+  const link = sheetLink(p.appUrl, p.campaignId, p.sheetId);
+  const job =
+    p.pass === 'reader'
+      ? 'type the first pass: the value on each display at every row'
+      : 'type the blind second pass: the same values again, without seeing the first pass until you have finished';
+  const size = `${p.rowCount} rows × ${p.channelCount} channels`;
+  const subject = `Sheet "${p.sheetName}" is yours to ${p.pass === 'reader' ? 'read' : 'check'}`;
+  const footer = 'You received this because a lead or engineer of the campaign assigned the sheet to you.';
+  const text = [
+    `Hello ${p.name},`,
+    '',
+    `${p.assignerName} asked you to ${job}.`,
+    `Sheet "${p.sheetName}" of run "${p.runName}" in the campaign "${p.campaignName}" (${size}).`,
+    '',
+    'Open the sheet here:',
+    link,
+    '',
+    footer,
+  ].join('\n');
+  const html = layout(
+    p.pass === 'reader' ? 'A sheet to read' : 'A sheet to check',
+    [
+      `Hello ${escapeHtml(p.name)},`,
+      `${escapeHtml(p.assignerName)} asked you to ${escapeHtml(job)}.`,
+      `Sheet <strong>${escapeHtml(p.sheetName)}</strong> of run ${escapeHtml(p.runName)} in the campaign ${escapeHtml(p.campaignName)} (${escapeHtml(size)}).`,
+    ],
+    { href: link, label: 'Open the sheet' },
+    footer,
+  );
+  return { subject, text, html };
+}

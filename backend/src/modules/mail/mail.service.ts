@@ -1,7 +1,7 @@
 import type { CampaignRole } from '@dialsheet/common';
 import { Injectable } from '@nestjs/common';
 import { AppConfig } from '../../config/app-config';
-import { invitationMail, passwordResetMail } from './mail-templates';
+import { invitationMail, passwordResetMail, sheetAssignmentMail, type SheetAssignmentMailParams } from './mail-templates';
 import { MailTransport } from './mail.transport';
 
 @Injectable()
@@ -20,5 +20,9 @@ export class MailService {
 
   async sendPasswordReset(to: string, p: { token: string; name: string; validMinutes: number }): Promise<void> {
     await this.transport.send({ to, ...passwordResetMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+
+  async sendSheetAssignment(to: string, p: Omit<SheetAssignmentMailParams, 'appUrl'>): Promise<void> {
+    await this.transport.send({ to, ...sheetAssignmentMail({ appUrl: this.config.appUrl, ...p }) });
   }
 }

@@ -32,9 +32,10 @@ const KNOWN_ENTITY_LABELS: Record<string, string> = {
   recording: 'Recording',
   channel: 'Channel',
   'display-region': 'Display region',
+  sheet: 'Sheet',
 };
 
-export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region'];
+export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region', 'sheet'];
 
 export function entityLabel(entityType: string): string {
   return KNOWN_ENTITY_LABELS[entityType] ?? entityType.replace(/[_-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());

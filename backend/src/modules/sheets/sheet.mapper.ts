@@ -1,0 +1,43 @@
+import type { Sheet } from '@dialsheet/common';
+import { sheetRowCount } from './sheet-rules';
+import type { SheetEntity } from './sheet.entity';
+
+/** The plan fields a client may set, in the order the wire type lists them. */
+export const SHEET_FIELDS = ['name', 'startTime', 'endTime', 'interval', 'channelIds'] as const;
+
+/**
+ * `channelIds` in entry order. Progress counts no readings yet: readings arrive with the entry
+ * screen, and until then every cell of both passes is still to do.
+ */
+export function toSheet(entity: SheetEntity, channelIds: string[]): Sheet {
+  const rowCount = sheetRowCount(entity.startTime, entity.endTime, entity.interval);
+  const total = rowCount * channelIds.length;
+  return {
+    id: entity.id,
+    campaignId: entity.campaignId,
+    runId: entity.runId,
+    name: entity.name,
+    startTime: entity.startTime,
+    endTime: entity.endTime,
+    interval: entity.interval,
+    channelIds: [...channelIds],
+    rowCount,
+    readerId: entity.readerId,
+    checkerId: entity.checkerId,
+    status: entity.readerId && entity.checkerId ? 'open' : 'draft',
+    progress: { pass1: { done: 0, total }, pass2: { done: 0, total } },
+    createdAt: entity.createdAt.toISOString(),
+    updatedAt: entity.updatedAt.toISOString(),
+  };
+}
+
+/** The fields of a sheet the audit trail records. */
+export function sheetSnapshot(entity: Pick<SheetEntity, 'name' | 'startTime' | 'endTime' | 'interval'>, channelIds: string[]): Record<string, unknown> {
+  return {
+    name: entity.name,
+    startTime: entity.startTime,
+    endTime: entity.endTime,
+    interval: entity.interval,
+    channelIds: [...channelIds],
+  };
+}

@@ -1,0 +1,63 @@
+// A sheet is the reading plan of a run: rows at a fixed interval of test time, from start to end,
+// and the channels to read at each row, in the order the reader types them.
+
+/** 'draft' until both a reader and a checker are assigned; then 'open' for entry. */
+export type SheetStatus = 'draft' | 'open';
+
+export interface PassProgress {
+  /** Cells entered in this pass (row × channel). */
+  done: number;
+  /** rowCount × number of channels. */
+  total: number;
+}
+
+export interface Sheet {
+  id: string;
+  campaignId: string;
+  runId: string;
+  name: string;
+  /** Test time of the first row, seconds. */
+  startTime: number;
+  /** Test time of the last row at most, seconds (the last row falls on or before it). */
+  endTime: number;
+  /** Seconds of test time between rows. */
+  interval: number;
+  /** Channels read at each row, in entry order. */
+  channelIds: string[];
+  rowCount: number;
+  /** Who types the first pass; null until assigned. */
+  readerId: string | null;
+  /** Who types the blind second pass; null until assigned. */
+  checkerId: string | null;
+  status: SheetStatus;
+  progress: { pass1: PassProgress; pass2: PassProgress };
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface CreateSheetRequest {
+  name: string;
+  startTime: number;
+  endTime: number;
+  interval: number;
+  channelIds: string[];
+}
+
+export interface UpdateSheetRequest extends Partial<CreateSheetRequest> {
+  /** Optional reason stored in the audit trail. */
+  reason?: string;
+}
+
+/** Absent: unchanged; null: nobody. */
+export interface AssignSheetRequest {
+  readerId?: string | null;
+  checkerId?: string | null;
+}
+
+/** One timestamp of a sheet. */
+export interface SheetRow {
+  /** From 0. */
+  index: number;
+  /** Test time, seconds. */
+  testTime: number;
+}
