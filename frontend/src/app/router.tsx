@@ -50,6 +50,10 @@ export function createAppRoutes(): RouteObject[] {
                   lazy: () => import('./routes/app/run').then((m) => ({ Component: m.RunRoute })),
                 },
                 {
+                  path: 'channels',
+                  lazy: () => import('./routes/app/campaign-channels').then((m) => ({ Component: m.CampaignChannelsRoute })),
+                },
+                {
                   path: 'members',
                   lazy: () => import('./routes/app/campaign-members').then((m) => ({ Component: m.CampaignMembersRoute })),
                 },

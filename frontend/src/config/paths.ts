@@ -25,6 +25,10 @@ export const paths = {
     path: '/campaigns/:campaignId/runs',
     getHref: (campaignId: string) => `/campaigns/${campaignId}/runs`,
   },
+  campaignChannels: {
+    path: '/campaigns/:campaignId/channels',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/channels`,
+  },
   run: {
     path: '/campaigns/:campaignId/runs/:runId',
     getHref: (campaignId: string, runId: string) => `/campaigns/${campaignId}/runs/${runId}`,

@@ -3,6 +3,7 @@ import { Link, Outlet, useLocation, useMatch, useNavigate } from 'react-router-d
 import { Avatar, Button, Dropdown, Layout, Menu, Tooltip, Typography, type MenuProps } from 'antd';
 import {
   AuditOutlined,
+  DashboardFilled,
   DashboardOutlined,
   LogoutOutlined,
   MailOutlined,
@@ -64,6 +65,7 @@ export function AppShell({ campaignSwitcher, children }: AppShellProps) {
       list.push(
         { keys: ['g', 'o'], group: 'Current campaign', description: 'Overview', run: () => navigate(paths.campaign.getHref(campaignId)) },
         { keys: ['g', 'r'], group: 'Current campaign', description: 'Runs', run: () => navigate(paths.campaignRuns.getHref(campaignId)) },
+        { keys: ['g', 'h'], group: 'Current campaign', description: 'Channels', run: () => navigate(paths.campaignChannels.getHref(campaignId)) },
         { keys: ['g', 'm'], group: 'Current campaign', description: 'Members', run: () => navigate(paths.campaignMembers.getHref(campaignId)) },
         { keys: ['g', 't'], group: 'Current campaign', description: 'Audit trail', run: () => navigate(paths.campaignAudit.getHref(campaignId)) },
       );
@@ -114,6 +116,7 @@ export function AppShell({ campaignSwitcher, children }: AppShellProps) {
             children: [
               { key: paths.campaign.getHref(campaignId), icon: <DashboardOutlined />, label: <Link to={paths.campaign.getHref(campaignId)}>Overview</Link> },
               { key: paths.campaignRuns.getHref(campaignId), icon: <VideoCameraOutlined />, label: <Link to={paths.campaignRuns.getHref(campaignId)}>Runs</Link> },
+              { key: paths.campaignChannels.getHref(campaignId), icon: <DashboardFilled />, label: <Link to={paths.campaignChannels.getHref(campaignId)}>Channels</Link> },
               { key: paths.campaignMembers.getHref(campaignId), icon: <TeamOutlined />, label: <Link to={paths.campaignMembers.getHref(campaignId)}>Members</Link> },
               { key: paths.campaignAudit.getHref(campaignId), icon: <AuditOutlined />, label: <Link to={paths.campaignAudit.getHref(campaignId)}>Audit trail</Link> },
             ],

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type Ref } from 'react';
+import { useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type ReactNode, type Ref } from 'react';
 import { VideoElement } from './video-element';
 import { Alert, Button, Slider, Space, Tooltip, Typography } from 'antd';
 import {
@@ -64,6 +64,8 @@ export interface FramePlayerProps {
   onFrameChange?: (frame: FrameInfo) => void;
   /** The element could not load or play the source (for example, its signed link expired). */
   onMediaError?: () => void;
+  /** Drawn over the picture, in a layer the size of the screen (display regions, for one). */
+  overlay?: ReactNode;
   ref?: Ref<FramePlayerHandle>;
 }
 
@@ -100,6 +102,7 @@ export function FramePlayer({
   keyboard = true,
   onFrameChange,
   onMediaError,
+  overlay,
   ref,
 }: FramePlayerProps) {
   const times = frameTimes;
@@ -373,6 +376,7 @@ export function FramePlayer({
           height="100%"
           className="frame-player-video"
         />
+        {overlay}
         {!loaded && !error ? <div className="frame-player-overlay">Loading video…</div> : null}
       </div>
       {error ? <Alert type="error" showIcon className="frame-player-alert" title={error} /> : null}

@@ -28,6 +28,7 @@ function renderRun(
       'GET /api/runs/:runId': { body: run },
       'GET /api/runs/:runId/recording': recording ?? apiError(404, 'This run has no recording yet'),
       'GET /api/campaigns/:campaignId/runs': { body: [run] },
+      'GET /api/campaigns/:campaignId/channels': { body: [] },
       ...routes,
     },
   });

@@ -34,6 +34,7 @@ describe('runs list', () => {
         },
         'GET /api/runs/:runId': ({ params }: StubRequest) => ({ body: created.find((r) => r.id === params.runId) }),
         'GET /api/runs/:runId/recording': apiError(404, 'This run has no recording yet'),
+        'GET /api/campaigns/:campaignId/channels': { body: [] },
       },
     });
 

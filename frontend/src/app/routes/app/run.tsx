@@ -17,6 +17,10 @@ import { SyncPanel, type SyncFrame } from '@/features/runs/components/sync-panel
 import { useRecording } from '@/features/recordings/api/get-recording';
 import { RecordingPanel } from '@/features/recordings/components/recording-panel';
 import { RecordingFacts } from '@/features/recordings/components/recording-facts';
+import { useChannels } from '@/features/channels/api/get-channels';
+import { useRegionEditor } from '@/features/channels/hooks/use-region-editor';
+import { RegionOverlay } from '@/features/channels/components/region-overlay';
+import { DisplayRegionsCard } from '@/features/channels/components/display-regions-card';
 
 export function RunRoute() {
   const { campaignId = '', runId = '' } = useParams();
@@ -27,6 +31,8 @@ export function RunRoute() {
   const [editing, setEditing] = useState(false);
   const playerRef = useRef<FramePlayerHandle>(null);
   const [frame, setFrame] = useState<SyncFrame | null>(null);
+  const channels = useChannels({ campaignId });
+  const regionEditor = useRegionEditor({ runId, channels: channels.data ?? [] });
   useDocumentTitle(run.data ? `${run.data.name} · Runs` : 'Run');
 
   const onFrameChange = useCallback((next: FrameInfo) => {
@@ -58,6 +64,23 @@ export function RunRoute() {
   const canEdit = campaign.myRoles.includes('lead') || campaign.myRoles.includes('engineer');
   const ready = recording.data?.status === 'ready';
   const subtitle = [current.runDate, current.configuration].filter(Boolean).join(' · ');
+  const proxy = recording.data?.proxy;
+  const probe = recording.data?.probe;
+  const frameSize = proxy
+    ? { width: proxy.width, height: proxy.height }
+    : probe
+      ? { width: probe.displayWidth, height: probe.displayHeight }
+      : null;
+  const regionOverlay =
+    channels.data && channels.data.length > 0 ? (
+      <RegionOverlay
+        channels={channels.data}
+        regions={regionEditor.regions}
+        frameSize={frameSize}
+        activeChannelId={canEdit ? regionEditor.activeChannelId : null}
+        onDraw={canEdit ? regionEditor.setRegion : undefined}
+      />
+    ) : null;
 
   return (
     <>
@@ -88,11 +111,13 @@ export function RunRoute() {
             sync={current.sync}
             playerRef={playerRef}
             onFrameChange={onFrameChange}
+            overlay={regionOverlay}
           />
         </Col>
         <Col xs={24} xl={8}>
           <Space orientation="vertical" size={16} className="full-width">
             <SyncPanel run={current} canEdit={canEdit} currentFrame={ready ? frame : null} onShowTime={ready ? showTime : undefined} />
+            {canEdit && channels.data ? <DisplayRegionsCard editor={regionEditor} channels={channels.data} videoReady={ready} /> : null}
             {recording.data ? <RecordingFacts recording={recording.data} /> : null}
             <RunDetails run={current} />
           </Space>

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState, type Ref } from 'react';
+import { useEffect, useRef, useState, type ReactNode, type Ref } from 'react';
 import { Button, Card, Popconfirm, Skeleton, Space } from 'antd';
 import { DeleteOutlined, SwapOutlined } from '@ant-design/icons';
 import { useQueryClient } from '@tanstack/react-query';
@@ -20,10 +20,12 @@ interface RecordingPanelProps {
   sync: SyncMarks | null;
   playerRef?: Ref<FramePlayerHandle>;
   onFrameChange?: (frame: FrameInfo) => void;
+  /** Drawn over the playing video's picture, composed by the page. */
+  overlay?: ReactNode;
 }
 
 /** The run's video: upload it, watch it being processed, then step through it. */
-export function RecordingPanel({ runId, campaignId, canEdit, sync, playerRef, onFrameChange }: RecordingPanelProps) {
+export function RecordingPanel({ runId, campaignId, canEdit, sync, playerRef, onFrameChange, overlay }: RecordingPanelProps) {
   const queryClient = useQueryClient();
   const recording = useRecording({ runId });
   const upload = useUploadRecording(runId);
@@ -58,7 +60,7 @@ export function RecordingPanel({ runId, campaignId, canEdit, sync, playerRef, on
       <EmptyState title="No video yet" description="A lead or engineer of this campaign uploads the run's video." />
     );
   } else if (current.status === 'ready') {
-    body = <RecordingPlayer recording={current} sync={sync} playerRef={playerRef} onFrameChange={onFrameChange} />;
+    body = <RecordingPlayer recording={current} sync={sync} playerRef={playerRef} onFrameChange={onFrameChange} overlay={overlay} />;
   } else {
     body = <ProcessingStatus recording={current} />;
   }

@@ -1,4 +1,4 @@
-import type { Ref } from 'react';
+import type { ReactNode, Ref } from 'react';
 import { Alert, Skeleton } from 'antd';
 import type { Recording, SyncMarks } from '@dialsheet/common';
 import { ErrorState } from '@/components/feedback/error-state';
@@ -11,13 +11,15 @@ interface RecordingPlayerProps {
   sync: SyncMarks | null;
   playerRef?: Ref<FramePlayerHandle>;
   onFrameChange?: (frame: FrameInfo) => void;
+  /** Drawn over the picture (see FramePlayer). */
+  overlay?: ReactNode;
 }
 
 /** Links that expire within this long count as the likely cause of a playback error. */
 const NEAR_EXPIRY_MS = 60_000;
 
 /** The playback copy in the frame-stepping player, over short-lived signed links. */
-export function RecordingPlayer({ recording, sync, playerRef, onFrameChange }: RecordingPlayerProps) {
+export function RecordingPlayer({ recording, sync, playerRef, onFrameChange, overlay }: RecordingPlayerProps) {
   const media = useMediaUrls({ recordingId: recording.id });
   const frames = useRecordingFrames({ recordingId: recording.id });
 
@@ -57,6 +59,7 @@ export function RecordingPlayer({ recording, sync, playerRef, onFrameChange }: R
       sync={sync}
       aspectRatio={aspectRatio}
       onFrameChange={onFrameChange}
+      overlay={overlay}
       onMediaError={() => {
         // An expired link is the one failure new links fix; anything else would only loop.
         if (Date.parse(expiresAt) - Date.now() < NEAR_EXPIRY_MS) void media.refetch();
