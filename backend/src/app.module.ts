@@ -17,6 +17,7 @@ import { InvitationsModule } from './modules/invitations/invitations.module';
 import { MailModule } from './modules/mail/mail.module';
 import { RecordingsModule } from './modules/recordings/recordings.module';
 import { RunsModule } from './modules/runs/runs.module';
+import { ReadingsModule } from './modules/readings/readings.module';
 import { SheetsModule } from './modules/sheets/sheets.module';
 import { UsersModule } from './modules/users/users.module';
 
@@ -50,6 +51,7 @@ export class AppModule {
       RecordingsModule,
       ChannelsModule,
       SheetsModule,
+      ReadingsModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

@@ -8,6 +8,7 @@ import { DisplayRegionEntity } from '../modules/channels/display-region.entity';
 import { InvitationEntity } from '../modules/invitations/invitation.entity';
 import { RecordingFrameTimesEntity } from '../modules/recordings/recording-frame-times.entity';
 import { RecordingEntity } from '../modules/recordings/recording.entity';
+import { ReadingEntity } from '../modules/readings/reading.entity';
 import { RunEntity } from '../modules/runs/run.entity';
 import { SheetChannelEntity } from '../modules/sheets/sheet-channel.entity';
 import { SheetEntity } from '../modules/sheets/sheet.entity';
@@ -28,4 +29,5 @@ export const entities = [
   DisplayRegionEntity,
   SheetEntity,
   SheetChannelEntity,
+  ReadingEntity,
 ];

@@ -67,3 +67,58 @@ export interface CellComparison {
   /** Empty when the passes agree; otherwise one sentence per reason. */
   reasons: string[];
 }
+
+/** One stored entry of a cell (row × channel) in one pass, as the server sends it. */
+export interface Reading {
+  sheetId: string;
+  rowIndex: number;
+  channelId: string;
+  pass: ReadingPass;
+  /** Exactly as typed. */
+  rawText: string;
+  /** The parsed number; null when the entry is flagged. */
+  value: number | null;
+  flag: ReadingFlag | null;
+  /** Presentation time (seconds of video) of the frame actually read; null when not sent. */
+  frameTime: number | null;
+  enteredBy: string;
+  /** Starts at 1; each change of the text or frame adds 1. A change must name the version it replaces. */
+  version: number;
+  updatedAt: string;
+  /** Limits the value falls outside; flagged for a second look, never refused. */
+  warnings: LimitWarning[];
+}
+
+export interface ReadingInput {
+  channelId: string;
+  rawText: string;
+  frameTime?: number | null;
+  /** The version this entry replaces; null or absent for a first entry. */
+  baseVersion?: number | null;
+}
+
+/** Saves one row of one pass; the row index is in the path (a body copy must match it). */
+export interface SaveRowRequest {
+  pass: ReadingPass;
+  rowIndex?: number;
+  readings: ReadingInput[];
+}
+
+export interface SaveRowResponse {
+  /** In the order of the request. */
+  readings: Reading[];
+}
+
+/** Body of a 409 on a stale change: the value stored now, so the screen can offer to reload it. */
+export interface ReadingConflictError {
+  statusCode: 409;
+  message: string;
+  current: Reading | null;
+}
+
+/** A pass marked finished by its owner. */
+export interface PassFinish {
+  sheetId: string;
+  pass: ReadingPass;
+  finishedAt: string;
+}

@@ -24,7 +24,7 @@ const BODY_PARSER_MESSAGES: Record<string, string> = {
  * Fields of an HttpException body that reach the client beside statusCode, error and message.
  * Listed one by one so nothing else an exception carries can leak out.
  */
-const PASSTHROUGH_FIELDS = ['duplicateOf'] as const;
+const PASSTHROUGH_FIELDS = ['duplicateOf', 'current'] as const;
 
 export function toApiError(exception: unknown): ApiError {
   // Express adapters wrap body-parser errors in an HttpException that keeps the parser's own

@@ -142,6 +142,13 @@ export class ChannelsService {
         [channel.id],
       )) as Array<{ sheet: string; run: string; total: number }>;
       if (used) throw new ConflictException(channelInUse(used.sheet, used.run, used.total));
+      // Readings are part of the record: a channel with typed readings is never deleted.
+      const [{ readings }] = (await manager.query('SELECT count(*)::int AS readings FROM readings WHERE channel_id = $1', [
+        channel.id,
+      ])) as Array<{ readings: number }>;
+      if (readings > 0) {
+        throw new ConflictException(`This channel has ${readings} reading${readings === 1 ? '' : 's'} on record; readings are never deleted, so neither is the channel`);
+      }
       const [{ regions }] = (await manager.query('SELECT count(*)::int AS regions FROM display_regions WHERE channel_id = $1', [
         channel.id,
       ])) as Array<{ regions: number }>;

@@ -30,6 +30,14 @@ export class SheetEntity {
   @Column({ type: 'uuid', nullable: true })
   checkerId: string | null;
 
+  /** Set once by the reader; kept on the sheet rather than derived so a later edit does not reopen it. */
+  @Column({ type: 'timestamptz', nullable: true })
+  pass1FinishedAt: Date | null;
+
+  /** Set once by the checker; until then pass-1 values stay hidden from the checker. */
+  @Column({ type: 'timestamptz', nullable: true })
+  pass2FinishedAt: Date | null;
+
   @CreateDateColumn({ type: 'timestamptz' })
   createdAt: Date;
 

@@ -5,11 +5,14 @@ import type { SheetEntity } from './sheet.entity';
 /** The plan fields a client may set, in the order the wire type lists them. */
 export const SHEET_FIELDS = ['name', 'startTime', 'endTime', 'interval', 'channelIds'] as const;
 
-/**
- * `channelIds` in entry order. Progress counts no readings yet: readings arrive with the entry
- * screen, and until then every cell of both passes is still to do.
- */
-export function toSheet(entity: SheetEntity, channelIds: string[]): Sheet {
+/** Cells of each pass that hold an entry, counted within the sheet's current rows and channels. */
+export interface SheetDone {
+  pass1: number;
+  pass2: number;
+}
+
+/** `channelIds` in entry order; `done` absent means no entries yet (a sheet just planned). */
+export function toSheet(entity: SheetEntity, channelIds: string[], done: SheetDone = { pass1: 0, pass2: 0 }): Sheet {
   const rowCount = sheetRowCount(entity.startTime, entity.endTime, entity.interval);
   const total = rowCount * channelIds.length;
   return {
@@ -25,7 +28,7 @@ export function toSheet(entity: SheetEntity, channelIds: string[]): Sheet {
     readerId: entity.readerId,
     checkerId: entity.checkerId,
     status: entity.readerId && entity.checkerId ? 'open' : 'draft',
-    progress: { pass1: { done: 0, total }, pass2: { done: 0, total } },
+    progress: { pass1: { done: done.pass1, total }, pass2: { done: done.pass2, total } },
     createdAt: entity.createdAt.toISOString(),
     updatedAt: entity.updatedAt.toISOString(),
   };

@@ -17,10 +17,10 @@ import { UserEntity } from '../users/user.entity';
 import { AssignSheetDto } from './dto/assign-sheet.dto';
 import { CreateSheetDto } from './dto/create-sheet.dto';
 import { UpdateSheetDto } from './dto/update-sheet.dto';
-import { runLimitProblem, sheetProblems, sheetRows, type SheetPlan } from './sheet-rules';
+import { runLimitProblem, sheetProblems, sheetRowCount, sheetRows, type SheetPlan } from './sheet-rules';
 import { SheetChannelEntity } from './sheet-channel.entity';
 import { SheetEntity } from './sheet.entity';
-import { SHEET_FIELDS, sheetSnapshot, toSheet } from './sheet.mapper';
+import { SHEET_FIELDS, sheetSnapshot, toSheet, type SheetDone } from './sheet.mapper';
 
 export const SHEET_NOT_FOUND = 'Sheet not found';
 /** Who may plan sheets and assign people to them. */
@@ -50,7 +50,8 @@ export class SheetsService {
     const manager = this.dataSource.manager;
     const sheets = await manager.find(SheetEntity, { where: { runId }, order: { createdAt: 'ASC', id: 'ASC' } });
     const channels = await this.channelsOf(manager, sheets.map((s) => s.id));
-    return sheets.map((s) => toSheet(s, channels.get(s.id) ?? []));
+    const done = await this.doneOf(manager, sheets);
+    return sheets.map((s) => toSheet(s, channels.get(s.id) ?? [], done.get(s.id)));
   }
 
   async get(user: AuthUser, sheetId: string): Promise<Sheet> {
@@ -120,7 +121,7 @@ export class SheetsService {
           after[key] = next[key];
         }
       }
-      if (Object.keys(after).length === 0) return toSheet(sheet, channelIds);
+      if (Object.keys(after).length === 0) return toSheet(sheet, channelIds, (await this.doneOf(manager, [sheet])).get(sheet.id));
       await this.assertFitsRun(manager, await this.lockRun(manager, sheet.runId), merged);
       sheet.name = merged.name;
       sheet.startTime = merged.startTime;
@@ -141,13 +142,21 @@ export class SheetsService {
         after,
         reason: dto.reason,
       });
-      return toSheet(saved, merged.channelIds);
+      return toSheet(saved, merged.channelIds, (await this.doneOf(manager, [saved])).get(saved.id));
     });
   }
 
   async remove(user: AuthUser, sheetId: string): Promise<void> {
     await this.dataSource.transaction(async (manager) => {
       const sheet = await this.requireSheet(user, sheetId, SHEET_WRITERS, manager, true);
+      // Readings are the record: the foreign key would cascade them away with the sheet, so a
+      // sheet that holds any reading is kept.
+      const [{ readings }] = (await manager.query('SELECT count(*)::int AS readings FROM readings WHERE sheet_id = $1', [sheet.id])) as Array<{
+        readings: number;
+      }>;
+      if (readings > 0) {
+        throw new ConflictException(`This sheet holds ${readings} reading${readings === 1 ? '' : 's'}; readings are never deleted, so neither is the sheet`);
+      }
       const channelIds = (await this.channelsOf(manager, [sheet.id])).get(sheet.id) ?? [];
       await manager.delete(SheetEntity, { id: sheet.id });
       await this.audit.record(manager, {
@@ -217,7 +226,7 @@ export class SheetsService {
       )) as Array<{ runName: string; campaignName: string }>;
       return { sheet: saved, channelIds, notify, context: names };
     });
-    const result = toSheet(sheet, channelIds);
+    const result = toSheet(sheet, channelIds, (await this.doneOf(this.dataSource.manager, [sheet])).get(sheet.id));
     for (const { pass, user: person } of notify) {
       try {
         await this.mail.sendSheetAssignment(person.email, {
@@ -282,7 +291,32 @@ export class SheetsService {
   }
 
   private async present(manager: EntityManager, sheet: SheetEntity): Promise<Sheet> {
-    return toSheet(sheet, (await this.channelsOf(manager, [sheet.id])).get(sheet.id) ?? []);
+    return toSheet(sheet, (await this.channelsOf(manager, [sheet.id])).get(sheet.id) ?? [], (await this.doneOf(manager, [sheet])).get(sheet.id));
+  }
+
+  /**
+   * Entries per pass that fall on the sheet's current rows and channels: a plan shortened or a
+   * channel dropped after entry keeps those readings but no longer counts them.
+   */
+  private async doneOf(manager: EntityManager, sheets: SheetEntity[]): Promise<Map<string, SheetDone>> {
+    const out = new Map<string, SheetDone>();
+    if (sheets.length === 0) return out;
+    const rows = (await manager.query(
+      `SELECT r.sheet_id AS "sheetId", r.pass, count(*)::int AS done
+         FROM readings r
+         JOIN unnest($1::uuid[], $2::int[]) AS s(id, row_count) ON s.id = r.sheet_id
+         JOIN sheet_channels sc ON sc.sheet_id = r.sheet_id AND sc.channel_id = r.channel_id
+        WHERE r.row_index < s.row_count
+        GROUP BY r.sheet_id, r.pass`,
+      [sheets.map((s) => s.id), sheets.map((s) => sheetRowCount(s.startTime, s.endTime, s.interval))],
+    )) as Array<{ sheetId: string; pass: number; done: number }>;
+    for (const row of rows) {
+      const entry = out.get(row.sheetId) ?? { pass1: 0, pass2: 0 };
+      if (row.pass === 1) entry.pass1 = row.done;
+      else entry.pass2 = row.done;
+      out.set(row.sheetId, entry);
+    }
+    return out;
   }
 
   /**

@@ -33,9 +33,10 @@ const KNOWN_ENTITY_LABELS: Record<string, string> = {
   channel: 'Channel',
   'display-region': 'Display region',
   sheet: 'Sheet',
+  reading: 'Reading',
 };
 
-export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region', 'sheet'];
+export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region', 'sheet', 'reading'];
 
 export function entityLabel(entityType: string): string {
   return KNOWN_ENTITY_LABELS[entityType] ?? entityType.replace(/[_-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());

@@ -1,0 +1,55 @@
+import type { PassFinish, Reading, ReadingPass, SaveRowResponse } from '@dialsheet/common';
+import { BadRequestException, Body, Controller, Get, HttpCode, Param, Post, Put, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiConflictResponse, ApiOperation, ApiQuery, ApiTags } from '@nestjs/swagger';
+import type { AuthUser } from '../../core/auth-user';
+import { CurrentUser } from '../../core/decorators/current-user.decorator';
+import { SaveRowDto } from './dto/save-row.dto';
+import { ReadingsService } from './readings.service';
+
+function passOf(value: unknown, field: string): ReadingPass {
+  if (value === '1' || value === 1) return 1;
+  if (value === '2' || value === 2) return 2;
+  throw new BadRequestException(`${field} must be 1 or 2`);
+}
+
+function rowOf(value: string): number {
+  if (!/^\d{1,9}$/.test(value)) throw new BadRequestException(`rowIndex must be a whole number of 0 or more, got ${value}`);
+  return Number(value);
+}
+
+@ApiTags('readings')
+@ApiBearerAuth()
+@Controller('sheets/:sheetId')
+export class ReadingsController {
+  constructor(private readonly readings: ReadingsService) {}
+
+  @Put('rows/:rowIndex')
+  @ApiOperation({
+    summary: 'Save one row of one pass (its assigned reader or checker)',
+    description:
+      'Idempotent per (sheet, row, channel, pass): resending the same text and frame changes nothing. A change must name the stored version in baseVersion.',
+  })
+  @ApiConflictResponse({ description: 'A reading was changed elsewhere; the body carries the stored one in `current`' })
+  saveRow(
+    @CurrentUser() user: AuthUser,
+    @Param('sheetId') sheetId: string,
+    @Param('rowIndex') rowIndex: string,
+    @Body() dto: SaveRowDto,
+  ): Promise<SaveRowResponse> {
+    return this.readings.saveRow(user, sheetId, rowOf(rowIndex), dto);
+  }
+
+  @Get('readings')
+  @ApiQuery({ name: 'pass', enum: ['1', '2'] })
+  @ApiOperation({ summary: 'Entries of one pass (its owner, Lead, Engineers; the checker sees pass 1 only after finishing pass 2)' })
+  list(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string, @Query('pass') pass: string): Promise<Reading[]> {
+    return this.readings.list(user, sheetId, passOf(pass, 'pass'));
+  }
+
+  @Post('passes/:pass/finish')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Mark a pass finished once every cell has an entry (its assigned reader or checker)' })
+  finish(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string, @Param('pass') pass: string): Promise<PassFinish> {
+    return this.readings.finish(user, sheetId, passOf(pass, 'pass'));
+  }
+}

@@ -1,0 +1,249 @@
+import { parseReading, type CampaignRole, type PassFinish, type Reading, type ReadingPass, type SaveRowResponse } from '@dialsheet/common';
+import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { isUUID } from 'class-validator';
+import { DataSource, EntityManager, In } from 'typeorm';
+import type { AuthUser } from '../../core/auth-user';
+import { AuditService } from '../audit/audit.service';
+import { CampaignAccessService, type CampaignAccess } from '../campaigns/campaign-access.service';
+import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
+import { ChannelEntity } from '../channels/channel.entity';
+import { sheetRowCount } from '../sheets/sheet-rules';
+import { SheetChannelEntity } from '../sheets/sheet-channel.entity';
+import { SheetEntity } from '../sheets/sheet.entity';
+import { SHEET_NOT_FOUND } from '../sheets/sheets.service';
+import { SaveRowDto } from './dto/save-row.dto';
+import { decideSave, STALE_READING, type SaveDecision } from './reading-rules';
+import { ReadingEntity } from './reading.entity';
+import { toReading } from './reading.mapper';
+
+/** Who sees every pass of every sheet in the campaign. */
+const OVERSEERS: readonly CampaignRole[] = ['lead', 'engineer'];
+
+const PASS_OWNER = { 1: 'reader', 2: 'checker' } as const;
+
+interface SheetContext {
+  sheet: SheetEntity;
+  access: CampaignAccess;
+  channels: ChannelEntity[];
+  rowCount: number;
+}
+
+@Injectable()
+export class ReadingsService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly access: CampaignAccessService,
+    private readonly audit: AuditService,
+  ) {}
+
+  /**
+   * Saves one row of one pass in one transaction: either every reading of the row is stored (or
+   * found already stored) or none is. The sheet row is locked so two saves of the same cell queue.
+   */
+  async saveRow(user: AuthUser, sheetId: string, rowIndex: number, dto: SaveRowDto): Promise<SaveRowResponse> {
+    if (dto.rowIndex !== undefined && dto.rowIndex !== null && dto.rowIndex !== rowIndex) {
+      throw new BadRequestException(`rowIndex in the body (${dto.rowIndex}) must equal the row in the path (${rowIndex})`);
+    }
+    return this.dataSource.transaction(async (manager) => {
+      const ctx = await this.load(user, sheetId, manager, true);
+      const { sheet, channels, rowCount } = ctx;
+      if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
+      assertOwner(user, sheet, dto.pass);
+      if (!Number.isInteger(rowIndex) || rowIndex < 0 || rowIndex >= rowCount) {
+        throw new BadRequestException(`rowIndex must be a row of this sheet, from 0 to ${rowCount - 1}, got ${rowIndex}`);
+      }
+      const byId = new Map(channels.map((c) => [c.id, c]));
+      const problems: string[] = [];
+      const seen = new Set<string>();
+      const parsed = dto.readings.map((input, i) => {
+        const channel = byId.get(input.channelId);
+        if (!channel) {
+          problems.push(`readings.${i}.channelId is not a channel of this sheet`);
+          return null;
+        }
+        if (seen.has(input.channelId)) problems.push(`readings.${i}.channelId: ${channel.symbol} is already in this row`);
+        seen.add(input.channelId);
+        const result = parseReading(input.rawText, { decimalComma: ctx.access.campaign.decimalComma });
+        if (result.kind === 'error') problems.push(`readings.${i}.rawText (${channel.symbol}): ${result.message}`);
+        return result;
+      });
+      if (problems.length > 0) throw new BadRequestException(problems);
+
+      const stored = await manager.find(ReadingEntity, {
+        where: { sheetId: sheet.id, rowIndex, pass: dto.pass, channelId: In(dto.readings.map((r) => r.channelId)) },
+        lock: { mode: 'pessimistic_write' },
+      });
+      const storedBy = new Map(stored.map((r) => [r.channelId, r]));
+      const decisions: SaveDecision[] = dto.readings.map((input) => decideSave(storedBy.get(input.channelId) ?? null, input));
+      const conflict = decisions.findIndex((d) => d.kind === 'conflict');
+      if (conflict >= 0) {
+        const current = storedBy.get(dto.readings[conflict].channelId);
+        throw new ConflictException({
+          message: STALE_READING,
+          current: current ? toReading(current, byId.get(current.channelId)) : null,
+        });
+      }
+
+      const out: Reading[] = [];
+      for (const [i, input] of dto.readings.entries()) {
+        const decision = decisions[i];
+        const result = parsed[i];
+        const existing = storedBy.get(input.channelId);
+        if (decision.kind === 'unchanged' && existing) {
+          out.push(toReading(existing, byId.get(input.channelId)));
+          continue;
+        }
+        if (!result || result.kind === 'error') continue;
+        const fields = {
+          rawText: input.rawText,
+          value: result.kind === 'number' ? result.value : null,
+          canonical: result.kind === 'number' ? result.canonical : null,
+          flag: result.kind === 'flag' ? result.flag : null,
+          frameTime: input.frameTime ?? null,
+          enteredBy: user.id,
+        };
+        let saved: ReadingEntity;
+        if (decision.kind === 'update' && existing) {
+          const before = { rawText: existing.rawText, frameTime: existing.frameTime, version: existing.version };
+          saved = await manager.save(ReadingEntity, Object.assign(existing, fields, { version: decision.version }));
+          await this.recordAudit(manager, user, sheet, saved, 'update', before);
+        } else {
+          saved = await manager.save(
+            ReadingEntity,
+            manager.create(ReadingEntity, { sheetId: sheet.id, rowIndex, channelId: input.channelId, pass: dto.pass, version: 1, ...fields }),
+          );
+          await this.recordAudit(manager, user, sheet, saved, 'create', null);
+        }
+        out.push(toReading(saved, byId.get(input.channelId)));
+      }
+      return { readings: out };
+    });
+  }
+
+  /** Every entry of one pass, by row then by the sheet's channel order, to those allowed to see it. */
+  async list(user: AuthUser, sheetId: string, pass: ReadingPass): Promise<Reading[]> {
+    const manager = this.dataSource.manager;
+    const ctx = await this.load(user, sheetId, manager, false);
+    assertMayRead(user, ctx, pass);
+    const order = new Map(ctx.channels.map((c, i) => [c.id, i]));
+    const byId = new Map(ctx.channels.map((c) => [c.id, c]));
+    const rows = await manager.find(ReadingEntity, { where: { sheetId: ctx.sheet.id, pass }, order: { rowIndex: 'ASC' } });
+    return rows
+      .filter((r) => order.has(r.channelId) && r.rowIndex < ctx.rowCount)
+      .sort((a, b) => a.rowIndex - b.rowIndex || (order.get(a.channelId) ?? 0) - (order.get(b.channelId) ?? 0))
+      .map((r) => toReading(r, byId.get(r.channelId)));
+  }
+
+  /** A pass is finished once every cell has an entry (a blank or flag counts); finishing twice keeps the first time. */
+  async finish(user: AuthUser, sheetId: string, pass: ReadingPass): Promise<PassFinish> {
+    return this.dataSource.transaction(async (manager) => {
+      const ctx = await this.load(user, sheetId, manager, true);
+      const { sheet } = ctx;
+      if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
+      assertOwner(user, sheet, pass);
+      const field = pass === 1 ? 'pass1FinishedAt' : 'pass2FinishedAt';
+      const already = sheet[field];
+      if (already) return { sheetId: sheet.id, pass, finishedAt: already.toISOString() };
+      const total = ctx.rowCount * ctx.channels.length;
+      const [{ done }] = (await manager.query(
+        `SELECT count(*)::int AS done FROM readings r
+          JOIN sheet_channels sc ON sc.sheet_id = r.sheet_id AND sc.channel_id = r.channel_id
+         WHERE r.sheet_id = $1 AND r.pass = $2 AND r.row_index < $3`,
+        [sheet.id, pass, ctx.rowCount],
+      )) as Array<{ done: number }>;
+      if (done < total) {
+        throw new ConflictException(
+          `Pass ${pass} cannot be finished: ${total - done} of ${total} cells have no entry yet (type a value, or flag it blank, unreadable or ambiguous)`,
+        );
+      }
+      const finishedAt = new Date();
+      await manager.update(SheetEntity, { id: sheet.id }, { [field]: finishedAt });
+      await this.audit.record(manager, {
+        campaignId: sheet.campaignId,
+        actorId: user.id,
+        entityType: 'sheet',
+        entityId: sheet.id,
+        action: 'update',
+        before: { [field]: null },
+        after: { [field]: finishedAt.toISOString() },
+        reason: `Pass ${pass} finished`,
+      });
+      return { sheetId: sheet.id, pass, finishedAt: finishedAt.toISOString() };
+    });
+  }
+
+  private async recordAudit(
+    manager: EntityManager,
+    user: AuthUser,
+    sheet: SheetEntity,
+    reading: ReadingEntity,
+    action: 'create' | 'update',
+    before: Record<string, unknown> | null,
+  ): Promise<void> {
+    await this.audit.record(manager, {
+      campaignId: sheet.campaignId,
+      actorId: user.id,
+      entityType: 'reading',
+      entityId: reading.id,
+      action,
+      before: before ? { sheetId: sheet.id, rowIndex: reading.rowIndex, channelId: reading.channelId, pass: reading.pass, ...before } : null,
+      after: {
+        sheetId: sheet.id,
+        rowIndex: reading.rowIndex,
+        channelId: reading.channelId,
+        pass: reading.pass,
+        rawText: reading.rawText,
+        frameTime: reading.frameTime,
+        version: reading.version,
+      },
+    });
+  }
+
+  /**
+   * A sheet outside the caller's campaigns is "not found", like an unknown id. For saves the sheet
+   * row is locked (not the campaign) so entry on different sheets never queues behind each other.
+   */
+  private async load(user: AuthUser, sheetId: string, manager: EntityManager, lock: boolean): Promise<SheetContext> {
+    if (!isUUID(sheetId)) throw new NotFoundException(SHEET_NOT_FOUND);
+    const sheet = await manager.findOne(SheetEntity, { where: { id: sheetId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    if (!sheet) throw new NotFoundException(SHEET_NOT_FOUND);
+    let access: CampaignAccess;
+    try {
+      access = await this.access.require(user, sheet.campaignId, [], { manager });
+    } catch (error) {
+      if (error instanceof NotFoundException) throw new NotFoundException(SHEET_NOT_FOUND);
+      throw error;
+    }
+    const links = await manager.find(SheetChannelEntity, { where: { sheetId: sheet.id }, order: { position: 'ASC' } });
+    const found = await manager.find(ChannelEntity, { where: { id: In(links.map((l) => l.channelId)) } });
+    const byId = new Map(found.map((c) => [c.id, c]));
+    const channels = links.flatMap((l) => (byId.has(l.channelId) ? [byId.get(l.channelId) as ChannelEntity] : []));
+    return { sheet, access, channels, rowCount: sheetRowCount(sheet.startTime, sheet.endTime, sheet.interval) };
+  }
+}
+
+/** Only the person assigned to a pass types into it, whatever other roles they hold. */
+function assertOwner(user: AuthUser, sheet: SheetEntity, pass: ReadingPass): void {
+  const owner = pass === 1 ? sheet.readerId : sheet.checkerId;
+  if (owner !== user.id) {
+    throw new ForbiddenException(`Only the sheet’s assigned ${PASS_OWNER[pass]} may enter or finish pass ${pass}`);
+  }
+}
+
+/**
+ * The second pass is blind: its checker never sees pass 1 before finishing, even when they also
+ * hold an overseeing role. The reader sees pass 2 only once it is finished, for the same reason.
+ */
+function assertMayRead(user: AuthUser, ctx: SheetContext, pass: ReadingPass): void {
+  const { sheet, access } = ctx;
+  if (pass === 1) {
+    if (sheet.checkerId === user.id && !sheet.pass2FinishedAt) throw new ForbiddenException('Pass 1 is hidden until you finish pass 2');
+    if (sheet.readerId === user.id || sheet.checkerId === user.id) return;
+  } else {
+    if (sheet.readerId === user.id && !sheet.pass2FinishedAt) throw new ForbiddenException('Pass 2 is hidden until the checker finishes it');
+    if (sheet.checkerId === user.id || sheet.readerId === user.id) return;
+  }
+  if (OVERSEERS.some((r) => access.member.roles.includes(r))) return;
+  throw new ForbiddenException(`Pass ${pass} is shown to its ${PASS_OWNER[pass]}, the Lead and Engineers only`);
+}
