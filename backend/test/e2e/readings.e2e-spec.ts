@@ -263,7 +263,7 @@ describe('readings', () => {
     const progress = await call(t.http, 'get', `/api/sheets/${sheet.id}`, f.tokens.lead);
     expect(progress.body.progress).toEqual({ pass1: { done: 6, total: 6 }, pass2: { done: 6, total: 6 } });
   });
-  it('a channel with readings on record cannot be deleted, even once no sheet lists it', async () => {
+  it('readings keep their channel, sheet, run and recording: deleting or replacing any of them is refused (409)', async () => {
     const spare = await call(t.http, 'post', `/api/campaigns/${f.campaign.id}/channels`, f.tokens.lead).send({
       ...gauges[0],
       name: 'Spare thermometer',
@@ -303,5 +303,19 @@ describe('readings', () => {
     const again = await call(t.http, 'delete', `/api/channels/${spareId}`, f.tokens.lead);
     expect(again.status).toBe(409);
     expect(again.body.message).toMatch(/1 reading on record/);
+
+    // The run's recording and the run itself hold the readings' frames: both are kept from now on.
+    for (const [method, path] of [
+      ['delete', `/api/runs/${run.id}/recording`],
+      ['delete', `/api/runs/${run.id}`],
+    ] as const) {
+      const res = await call(t.http, method, path, f.tokens.lead);
+      expect(res.status, `${path} ${JSON.stringify(res.body)}`).toBe(409);
+      expect(res.body.message).toMatch(/reading.* typed from its recording/);
+    }
+    const replacement = await upload(t.http, f.tokens.lead, run.id, await media.unique(media.minute()));
+    expect(replacement.status, JSON.stringify(replacement.body)).toBe(409);
+    expect(replacement.body.message).toMatch(/cannot replace its recording/);
+    expect((await call(t.http, 'get', `/api/runs/${run.id}/recording`, f.tokens.lead)).body.status).toBe('ready');
   });
 });

@@ -7,6 +7,7 @@ import { createReadStream } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { DataSource, EntityManager, QueryFailedError } from 'typeorm';
+import { refuseIfRunHasReadings } from '../runs/run-readings';
 import { AppConfig } from '../../config/app-config';
 import type { AuthUser } from '../../core/auth-user';
 import { recordingKey } from '../../storage/storage-keys';
@@ -129,6 +130,7 @@ export class RecordingsService {
         replaced = await manager.findOneBy(RecordingEntity, { runId });
         const common = { campaignId: locked.campaignId, actorId: user.id };
         if (replaced) {
+          await refuseIfRunHasReadings(manager, locked.id, 'replace its recording');
           await manager.delete(RecordingEntity, { id: replaced.id });
           await this.audit.record(manager, {
             ...common,
@@ -203,6 +205,7 @@ export class RecordingsService {
       const { run } = await this.runAccess.require(user, runId, RUN_WRITERS, { manager, lock: true, writable: true });
       const recording = await manager.findOneBy(RecordingEntity, { runId });
       if (!recording) throw new NotFoundException(NO_RECORDING);
+      await refuseIfRunHasReadings(manager, run.id, 'remove its recording');
       await manager.delete(RecordingEntity, { id: recording.id });
       // Sync marks point into this video's timeline; they mean nothing for the next one.
       const before: Record<string, unknown> = recordingSnapshot(recording, run.name);

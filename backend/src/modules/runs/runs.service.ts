@@ -2,6 +2,7 @@ import { validateSyncMarks, type Run, type SyncMarks } from '@dialsheet/common';
 import { BadRequestException, ConflictException, Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In } from 'typeorm';
+import { refuseIfRunHasReadings } from './run-readings';
 import type { AuthUser } from '../../core/auth-user';
 import { StorageService } from '../../storage/storage.service';
 import { AuditService } from '../audit/audit.service';
@@ -105,6 +106,7 @@ export class RunsService {
   async remove(user: AuthUser, runId: string): Promise<void> {
     const keys = await this.dataSource.transaction(async (manager) => {
       const { run } = await this.runAccess.require(user, runId, RUN_WRITERS, { manager, lock: true, writable: true });
+      await refuseIfRunHasReadings(manager, run.id, 'delete the run');
       const recording = await manager.findOneBy(RecordingEntity, { runId });
       const common = { campaignId: run.campaignId, actorId: user.id };
       if (recording) {
