@@ -9,6 +9,7 @@ import { InvitationEntity } from '../modules/invitations/invitation.entity';
 import { RecordingFrameTimesEntity } from '../modules/recordings/recording-frame-times.entity';
 import { RecordingEntity } from '../modules/recordings/recording.entity';
 import { ReadingEntity } from '../modules/readings/reading.entity';
+import { ResolutionEntity } from '../modules/readings/resolution.entity';
 import { RunEntity } from '../modules/runs/run.entity';
 import { SheetChannelEntity } from '../modules/sheets/sheet-channel.entity';
 import { SheetEntity } from '../modules/sheets/sheet.entity';
@@ -30,4 +31,5 @@ export const entities = [
   SheetEntity,
   SheetChannelEntity,
   ReadingEntity,
+  ResolutionEntity,
 ];

@@ -1,7 +1,7 @@
 import type { AuditEntry, Channel, Page, PassFinish, Reading, Run, SaveRowResponse, Sheet } from '@dialsheet/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
-import { campaignFixture, createRun, upload, waitForStatus, type Fixture } from '../helpers/recordings';
+import { campaignFixture, createSyncedRun, upload, type Fixture } from '../helpers/recordings';
 import { bearer, startTestApp, type Http, type TestApp } from '../helpers/test-app';
 
 function call(http: Http, method: 'get' | 'post' | 'put' | 'patch' | 'delete', path: string, token: string) {
@@ -62,12 +62,7 @@ describe('readings', () => {
       expect(res.status, JSON.stringify(res.body)).toBe(201);
       channels.push(res.body as Channel);
     }
-    run = await createRun(t.http, f.tokens.lead, f.campaign.id);
-    expect((await upload(t.http, f.tokens.lead, run.id, await media.unique(media.minute()))).status).toBe(201);
-    expect((await waitForStatus(t.http, f.tokens.lead, run.id)).status).toBe('ready');
-    const sync = await call(t.http, 'put', `/api/runs/${run.id}/sync`, f.tokens.lead).send({ first: { videoTime: 2, testTime: 0 } });
-    expect(sync.status, JSON.stringify(sync.body)).toBe(200);
-    run = sync.body as Run;
+    run = await createSyncedRun(t.http, f.tokens.lead, f.campaign.id, media);
   }, 120_000);
   afterAll(async () => {
     await t.close();

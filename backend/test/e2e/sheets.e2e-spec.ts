@@ -88,6 +88,9 @@ describe('sheets', () => {
       checkerId: null,
       status: 'draft',
       progress: { pass1: { done: 0, total: 93 }, pass2: { done: 0, total: 93 } },
+      pass1FinishedAt: null,
+      pass2FinishedAt: null,
+      lock: null,
       createdAt: expect.any(String),
       updatedAt: expect.any(String),
     });

@@ -5,6 +5,7 @@ import type request from 'supertest';
 import { expect } from 'vitest';
 import type { UserEntity } from '../../src/modules/users/user.entity';
 import { addMember, bearer, createUser, login, type Http, type TestApp } from './test-app';
+import type { TestMedia } from './media';
 
 export type Actor = 'lead' | 'engineer' | 'reader' | 'checker' | 'outsider';
 export const MEMBERS = ['lead', 'engineer', 'reader', 'checker'] as const;
@@ -91,4 +92,17 @@ export function binary(res: request.Response, done: (err: Error | null, body: Bu
   const parts: Buffer[] = [];
   res.on('data', (c: Buffer) => parts.push(c));
   res.on('end', () => done(null, Buffer.concat(parts)));
+}
+
+/**
+ * A run with a processed one-minute recording and its sync set (video 2 s = test 0 s), ready for
+ * sheets: the set-up every readings test starts from.
+ */
+export async function createSyncedRun(http: Http, token: string, campaignId: string, media: TestMedia): Promise<Run> {
+  const run = await createRun(http, token, campaignId);
+  expect((await upload(http, token, run.id, await media.unique(media.minute()))).status).toBe(201);
+  expect((await waitForStatus(http, token, run.id)).status).toBe('ready');
+  const sync = await http.put(`/api/runs/${run.id}/sync`).set(bearer(token)).send({ first: { videoTime: 2, testTime: 0 } });
+  expect(sync.status, JSON.stringify(sync.body)).toBe(200);
+  return sync.body as Run;
 }

@@ -2,7 +2,7 @@
 // and per channel. Every difference is resolved against the frame, so the reasons are written for
 // the person who will look at it.
 
-import type { CellComparison, CellStatus, ParsedReading, ReadingFlag, ReadingParseOptions } from '../types/reading';
+import type { CellComparison, CellStatus, MismatchRate, ParsedReading, ReadingFlag, ReadingParseOptions } from '../types/reading';
 import { sameReading } from './normalise';
 import { DEFAULT_PARSE_OPTIONS, parseReading } from './parse-value';
 
@@ -65,14 +65,6 @@ export function compareRows(
     result.push([id, { status: 'mismatch', reasons }]);
   }
   return Object.fromEntries(result);
-}
-
-export interface MismatchRate {
-  /** Cells with both passes entered. */
-  compared: number;
-  mismatches: number;
-  /** mismatches / compared, or null when nothing has been compared yet (not 0: nothing is known). */
-  rate: number | null;
 }
 
 /** Rate over any set of cells (one row, a channel's column, all cells a reader entered). */

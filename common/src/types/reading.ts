@@ -122,3 +122,77 @@ export interface PassFinish {
   pass: ReadingPass;
   finishedAt: string;
 }
+
+/**
+ * The agreed value of a mismatched cell, recorded against the frame by the checker or a lead,
+ * always with a reason. The two passes are kept as typed; the resolution sits beside them.
+ */
+export interface Resolution {
+  sheetId: string;
+  rowIndex: number;
+  channelId: string;
+  /** The value as the resolver typed it (parsed by the same rules as an entry). */
+  rawText: string;
+  value: number | null;
+  flag: ReadingFlag | null;
+  reason: string;
+  resolvedBy: string;
+  resolvedAt: string;
+  /** Starts at 1; a change must name the version it replaces. */
+  version: number;
+}
+
+export interface ResolveCellRequest {
+  rawText: string;
+  /** Why this value: required, 1–500 characters. */
+  reason: string;
+  /** The version of the resolution this replaces; absent for a first resolution. */
+  baseVersion?: number | null;
+}
+
+/** One cell where the passes differ after normalising, or where either entry is flagged. */
+export interface MismatchCell {
+  rowIndex: number;
+  /** Test time of the row, seconds. */
+  testTime: number;
+  channelId: string;
+  pass1: Reading;
+  pass2: Reading;
+  /** One sentence per reason the cell is listed. */
+  reasons: string[];
+  resolution: Resolution | null;
+}
+
+export interface MismatchRate {
+  /** Cells with both passes entered. */
+  compared: number;
+  /** Of those, cells listed as mismatches. */
+  mismatches: number;
+  /** mismatches / compared, or null when nothing has been compared yet (not 0: nothing is known). */
+  rate: number | null;
+}
+
+export interface ChannelMismatchRate extends MismatchRate {
+  channelId: string;
+}
+
+/** One person's entries on the sheet (their pass) against the other pass. */
+export interface PersonMismatchRate extends MismatchRate {
+  userId: string;
+  name: string;
+  pass: ReadingPass;
+  /** Resolved cells whose resolution differs from this person's entry. */
+  wrong: number;
+}
+
+export interface SheetMismatches {
+  sheetId: string;
+  /** Both passes are finished: the list is complete. */
+  complete: boolean;
+  cells: MismatchCell[];
+  /** Cells still waiting for a resolution. */
+  open: number;
+  resolved: number;
+  byChannel: ChannelMismatchRate[];
+  byPerson: PersonMismatchRate[];
+}

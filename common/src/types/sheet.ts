@@ -31,6 +31,12 @@ export interface Sheet {
   checkerId: string | null;
   status: SheetStatus;
   progress: { pass1: PassProgress; pass2: PassProgress };
+  /** When the reader marked pass 1 finished; a finished pass no longer changes (corrections are resolutions). */
+  pass1FinishedAt: string | null;
+  /** When the checker marked pass 2 finished; pass 1 becomes visible to the checker from then. */
+  pass2FinishedAt: string | null;
+  /** Set when the run's data is inside a signed-off release: nothing on the sheet may change. */
+  lock: DataLock | null;
   createdAt: string;
   updatedAt: string;
 }
@@ -60,4 +66,10 @@ export interface SheetRow {
   index: number;
   /** Test time, seconds. */
   testTime: number;
+}
+
+/** A run's data inside a release cannot change; a change needs a new release version. */
+export interface DataLock {
+  releaseId: string;
+  releaseNumber: number;
 }

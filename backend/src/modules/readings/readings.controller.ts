@@ -1,8 +1,9 @@
-import type { PassFinish, Reading, ReadingPass, SaveRowResponse } from '@dialsheet/common';
-import { BadRequestException, Body, Controller, Get, HttpCode, Param, Post, Put, Query } from '@nestjs/common';
+import type { PassFinish, Reading, ReadingPass, Resolution, SaveRowResponse, SheetMismatches } from '@dialsheet/common';
+import { BadRequestException, Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiConflictResponse, ApiOperation, ApiQuery, ApiTags } from '@nestjs/swagger';
 import type { AuthUser } from '../../core/auth-user';
 import { CurrentUser } from '../../core/decorators/current-user.decorator';
+import { ResolveCellDto } from './dto/resolve-cell.dto';
 import { SaveRowDto } from './dto/save-row.dto';
 import { ReadingsService } from './readings.service';
 
@@ -51,5 +52,28 @@ export class ReadingsController {
   @ApiOperation({ summary: 'Mark a pass finished once every cell has an entry (its assigned reader or checker)' })
   finish(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string, @Param('pass') pass: string): Promise<PassFinish> {
     return this.readings.finish(user, sheetId, passOf(pass, 'pass'));
+  }
+
+  @Get('mismatches')
+  @ApiOperation({
+    summary: 'Cells where the passes differ or either is flagged, with resolutions and mismatch rates',
+    description: 'Lead and Engineers at any time; the sheet’s reader and checker once pass 2 is finished.',
+  })
+  mismatches(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string): Promise<SheetMismatches> {
+    return this.readings.mismatches(user, sheetId);
+  }
+
+  @Put('resolutions/:rowIndex/:channelId')
+  @ApiOperation({ summary: 'Record the agreed value of a mismatched cell with a reason (the checker after pass 2, or a Lead)' })
+  @ApiConflictResponse({ description: 'Not a mismatch, pass 2 not finished, locked, or a stale change (`current` holds the stored resolution)' })
+  resolve(
+    @CurrentUser() user: AuthUser,
+    @Param('sheetId') sheetId: string,
+    @Param('rowIndex') rowIndex: string,
+    @Param('channelId', new ParseUUIDPipe({ exceptionFactory: () => new BadRequestException('channelId must be a channel id (UUID)') }))
+    channelId: string,
+    @Body() dto: ResolveCellDto,
+  ): Promise<Resolution> {
+    return this.readings.resolve(user, sheetId, rowOf(rowIndex), channelId, dto);
   }
 }

@@ -1,4 +1,13 @@
-import { parseReading, type CampaignRole, type PassFinish, type Reading, type ReadingPass, type SaveRowResponse } from '@dialsheet/common';
+import {
+  parseReading,
+  type CampaignRole,
+  type PassFinish,
+  type Reading,
+  type ReadingPass,
+  type Resolution,
+  type SaveRowResponse,
+  type SheetMismatches,
+} from '@dialsheet/common';
 import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
@@ -8,14 +17,20 @@ import { AuditService } from '../audit/audit.service';
 import { CampaignAccessService, type CampaignAccess } from '../campaigns/campaign-access.service';
 import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
 import { ChannelEntity } from '../channels/channel.entity';
-import { sheetRowCount } from '../sheets/sheet-rules';
+import { refuseIfLocked } from '../runs/run-lock';
+import { RunEntity } from '../runs/run.entity';
+import { UserEntity } from '../users/user.entity';
+import { sheetRowCount, sheetRows } from '../sheets/sheet-rules';
 import { SheetChannelEntity } from '../sheets/sheet-channel.entity';
 import { SheetEntity } from '../sheets/sheet.entity';
 import { SHEET_NOT_FOUND } from '../sheets/sheets.service';
+import { ResolveCellDto } from './dto/resolve-cell.dto';
 import { SaveRowDto } from './dto/save-row.dto';
+import { computeMismatches, sameEntry } from './mismatches';
 import { decideSave, STALE_READING, type SaveDecision } from './reading-rules';
 import { ReadingEntity } from './reading.entity';
-import { toReading } from './reading.mapper';
+import { toReading, toResolution } from './reading.mapper';
+import { ResolutionEntity } from './resolution.entity';
 
 /** Who sees every pass of every sheet in the campaign. */
 const OVERSEERS: readonly CampaignRole[] = ['lead', 'engineer'];
@@ -24,6 +39,7 @@ const PASS_OWNER = { 1: 'reader', 2: 'checker' } as const;
 
 interface SheetContext {
   sheet: SheetEntity;
+  run: RunEntity;
   access: CampaignAccess;
   channels: ChannelEntity[];
   rowCount: number;
@@ -49,6 +65,7 @@ export class ReadingsService {
       const ctx = await this.load(user, sheetId, manager, true);
       const { sheet, channels, rowCount } = ctx;
       if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
+      refuseIfLocked(ctx.run);
       assertOwner(user, sheet, dto.pass);
       if (!Number.isInteger(rowIndex) || rowIndex < 0 || rowIndex >= rowCount) {
         throw new BadRequestException(`rowIndex must be a row of this sheet, from 0 to ${rowCount - 1}, got ${rowIndex}`);
@@ -76,6 +93,14 @@ export class ReadingsService {
       });
       const storedBy = new Map(stored.map((r) => [r.channelId, r]));
       const decisions: SaveDecision[] = dto.readings.map((input) => decideSave(storedBy.get(input.channelId) ?? null, input));
+      // A finished pass is the record the other pass was compared with: a resend of what is
+      // stored still succeeds (a retry whose answer was lost), but nothing in it changes now.
+      const finishedAt = dto.pass === 1 ? sheet.pass1FinishedAt : sheet.pass2FinishedAt;
+      if (finishedAt && decisions.some((d) => d.kind !== 'unchanged')) {
+        throw new ConflictException(
+          `Pass ${dto.pass} was finished on ${finishedAt.toISOString()} and no longer changes; a wrong value is corrected by resolving it as a mismatch`,
+        );
+      }
       const conflict = decisions.findIndex((d) => d.kind === 'conflict');
       if (conflict >= 0) {
         const current = storedBy.get(dto.readings[conflict].channelId);
@@ -141,6 +166,7 @@ export class ReadingsService {
       const ctx = await this.load(user, sheetId, manager, true);
       const { sheet } = ctx;
       if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
+      refuseIfLocked(ctx.run);
       assertOwner(user, sheet, pass);
       const field = pass === 1 ? 'pass1FinishedAt' : 'pass2FinishedAt';
       const already = sheet[field];
@@ -170,6 +196,129 @@ export class ReadingsService {
         reason: `Pass ${pass} finished`,
       });
       return { sheetId: sheet.id, pass, finishedAt: finishedAt.toISOString() };
+    });
+  }
+
+  /**
+   * The cells where the passes differ or either is flagged, each with its resolution, and the
+   * mismatch rates per channel and per person. Shown to Leads and Engineers at any time, and to
+   * the sheet's checker and reader once pass 2 is finished (before that it would reveal pass 1).
+   */
+  async mismatches(user: AuthUser, sheetId: string): Promise<SheetMismatches> {
+    const manager = this.dataSource.manager;
+    const ctx = await this.load(user, sheetId, manager, false);
+    assertMayReadMismatches(user, ctx);
+    return this.computeFor(manager, ctx);
+  }
+
+  /**
+   * Records the agreed value of a mismatched cell. The checker resolves once pass 2 is finished;
+   * a Lead may resolve at any time. The two passes stay as typed; the reason is required.
+   */
+  async resolve(user: AuthUser, sheetId: string, rowIndex: number, channelId: string, dto: ResolveCellDto): Promise<Resolution> {
+    return this.dataSource.transaction(async (manager) => {
+      const ctx = await this.load(user, sheetId, manager, true);
+      const { sheet, access } = ctx;
+      if (access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
+      refuseIfLocked(ctx.run);
+      const isLead = access.member.roles.includes('lead');
+      const isChecker = sheet.checkerId === user.id;
+      if (!isLead && !isChecker) throw new ForbiddenException('Mismatches are resolved by the sheet’s checker or a Lead');
+      // Even a Lead who is this sheet's checker or reader waits: resolving would reveal pass 1.
+      const blind = isChecker || sheet.readerId === user.id;
+      if ((blind || !isLead) && !sheet.pass2FinishedAt) {
+        throw new ConflictException('Finish pass 2 first: the mismatches are resolved after the blind entry');
+      }
+      if (!Number.isInteger(rowIndex) || rowIndex < 0 || rowIndex >= ctx.rowCount) {
+        throw new BadRequestException(`rowIndex must be a row of this sheet, from 0 to ${ctx.rowCount - 1}, got ${rowIndex}`);
+      }
+      const channel = ctx.channels.find((c) => c.id === channelId);
+      if (!channel) throw new BadRequestException('channelId is not a channel of this sheet');
+      const parsed = parseReading(dto.rawText, { decimalComma: access.campaign.decimalComma });
+      if (parsed.kind === 'error') throw new BadRequestException([`rawText (${channel.symbol}): ${parsed.message}`]);
+      const reason = dto.reason.trim();
+
+      const entries = await manager.find(ReadingEntity, { where: { sheetId: sheet.id, rowIndex, channelId } });
+      const pass1 = entries.find((r) => r.pass === 1);
+      const pass2 = entries.find((r) => r.pass === 2);
+      if (!pass1 || !pass2) throw new ConflictException('This cell does not hold both passes yet, so there is nothing to resolve');
+      const cell = computeMismatches({
+        sheetId: sheet.id,
+        channelIds: [channelId],
+        rowTimes: Array.from({ length: rowIndex + 1 }, () => 0),
+        pass1: [toReading(pass1, channel)],
+        pass2: [toReading(pass2, channel)],
+        resolutions: [],
+        names: new Map(),
+        complete: false,
+        parse: { decimalComma: access.campaign.decimalComma },
+      }).cells[0];
+      if (!cell) throw new ConflictException('The two passes agree on this cell, so there is nothing to resolve');
+
+      const existing = await manager.findOne(ResolutionEntity, {
+        where: { sheetId: sheet.id, rowIndex, channelId },
+        lock: { mode: 'pessimistic_write' },
+      });
+      const base = dto.baseVersion ?? null;
+      const fields = {
+        rawText: dto.rawText,
+        value: parsed.kind === 'number' ? parsed.value : null,
+        canonical: parsed.kind === 'number' ? parsed.canonical : null,
+        flag: parsed.kind === 'flag' ? parsed.flag : null,
+        reason,
+        resolvedBy: user.id,
+      };
+      if (existing && existing.rawText === dto.rawText && existing.reason === reason) return toResolution(existing);
+      if ((existing && base !== existing.version) || (!existing && base !== null)) {
+        throw new ConflictException({
+          message: 'This cell was resolved by someone else since you loaded it; reload to see their value and reason before changing it',
+          current: existing ? toResolution(existing) : null,
+        });
+      }
+      const before = existing ? { rawText: existing.rawText, reason: existing.reason, version: existing.version } : null;
+      const saved = existing
+        ? await manager.save(ResolutionEntity, Object.assign(existing, fields, { version: existing.version + 1 }))
+        : await manager.save(ResolutionEntity, manager.create(ResolutionEntity, { sheetId: sheet.id, rowIndex, channelId, version: 1, ...fields }));
+      await this.audit.record(manager, {
+        campaignId: sheet.campaignId,
+        actorId: user.id,
+        entityType: 'resolution',
+        entityId: saved.id,
+        action: existing ? 'update' : 'create',
+        before: before ? { sheetId: sheet.id, rowIndex, channelId, ...before } : null,
+        after: {
+          sheetId: sheet.id,
+          rowIndex,
+          channelId,
+          pass1: pass1.rawText,
+          pass2: pass2.rawText,
+          rawText: saved.rawText,
+          agreesWith: [sameEntry(saved, pass1) ? 1 : null, sameEntry(saved, pass2) ? 2 : null].filter((p) => p !== null),
+          version: saved.version,
+        },
+        reason,
+      });
+      return toResolution(saved);
+    });
+  }
+
+  private async computeFor(manager: EntityManager, ctx: SheetContext): Promise<SheetMismatches> {
+    const { sheet, channels } = ctx;
+    const byId = new Map(channels.map((c) => [c.id, c]));
+    const readings = await manager.find(ReadingEntity, { where: { sheetId: sheet.id } });
+    const resolutions = await manager.find(ResolutionEntity, { where: { sheetId: sheet.id } });
+    const people = [...new Set(readings.map((r) => r.enteredBy))];
+    const users = people.length > 0 ? await manager.find(UserEntity, { where: { id: In(people) }, select: { id: true, name: true } }) : [];
+    return computeMismatches({
+      sheetId: sheet.id,
+      channelIds: channels.map((c) => c.id),
+      rowTimes: sheetRows(sheet.startTime, sheet.endTime, sheet.interval).map((r) => r.testTime),
+      pass1: readings.filter((r) => r.pass === 1).map((r) => toReading(r, byId.get(r.channelId))),
+      pass2: readings.filter((r) => r.pass === 2).map((r) => toReading(r, byId.get(r.channelId))),
+      resolutions: resolutions.map(toResolution),
+      names: new Map(users.map((u) => [u.id, u.name])),
+      complete: sheet.pass1FinishedAt !== null && sheet.pass2FinishedAt !== null,
+      parse: { decimalComma: ctx.access.campaign.decimalComma },
     });
   }
 
@@ -219,7 +368,9 @@ export class ReadingsService {
     const found = await manager.find(ChannelEntity, { where: { id: In(links.map((l) => l.channelId)) } });
     const byId = new Map(found.map((c) => [c.id, c]));
     const channels = links.flatMap((l) => (byId.has(l.channelId) ? [byId.get(l.channelId) as ChannelEntity] : []));
-    return { sheet, access, channels, rowCount: sheetRowCount(sheet.startTime, sheet.endTime, sheet.interval) };
+    const run = await manager.findOneBy(RunEntity, { id: sheet.runId });
+    if (!run) throw new NotFoundException(SHEET_NOT_FOUND);
+    return { sheet, run, access, channels, rowCount: sheetRowCount(sheet.startTime, sheet.endTime, sheet.interval) };
   }
 }
 
@@ -246,4 +397,16 @@ function assertMayRead(user: AuthUser, ctx: SheetContext, pass: ReadingPass): vo
   }
   if (OVERSEERS.some((r) => access.member.roles.includes(r))) return;
   throw new ForbiddenException(`Pass ${pass} is shown to its ${PASS_OWNER[pass]}, the Lead and Engineers only`);
+}
+
+/** The mismatch list shows both passes side by side, so it follows the stricter of the two rules. */
+function assertMayReadMismatches(user: AuthUser, ctx: SheetContext): void {
+  const { sheet, access } = ctx;
+  // Checked before the overseeing roles: a Lead who is also this sheet's checker stays blind.
+  if (sheet.readerId === user.id || sheet.checkerId === user.id) {
+    if (sheet.pass2FinishedAt) return;
+    throw new ForbiddenException('The mismatch list opens once pass 2 is finished');
+  }
+  if (OVERSEERS.some((r) => access.member.roles.includes(r))) return;
+  throw new ForbiddenException('The mismatch list is shown to the sheet’s reader and checker, the Lead and Engineers only');
 }

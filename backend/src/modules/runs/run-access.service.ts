@@ -1,3 +1,4 @@
+import { refuseIfLocked } from './run-lock';
 import type { CampaignRole } from '@dialsheet/common';
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
@@ -54,6 +55,8 @@ export class RunAccessService {
         ? await options.manager.getRepository(RunEntity).findOne({ where: { id: runId }, lock: { mode: 'pessimistic_write' } })
         : found;
     if (!run) throw new NotFoundException(RUN_NOT_FOUND);
+    // Every change to a run, its recording, sync, regions or sheets asks for a writable run.
+    if (options.writable) refuseIfLocked(run);
     return { ...access, run };
   }
 }

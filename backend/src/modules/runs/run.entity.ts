@@ -31,6 +31,13 @@ export class RunEntity {
   @Column({ type: 'uuid' })
   createdById: string;
 
+  /** The release holding this run's data; set, nothing on the run may change. */
+  @Column({ type: 'uuid', nullable: true })
+  lockedReleaseId: string | null;
+
+  @Column({ type: 'integer', nullable: true })
+  lockedReleaseNumber: number | null;
+
   @CreateDateColumn({ type: 'timestamptz' })
   createdAt: Date;
 

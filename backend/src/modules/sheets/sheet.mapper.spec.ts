@@ -16,6 +16,8 @@ const sheet = Object.assign(new SheetEntity(), {
   interval: 2,
   readerId: null,
   checkerId: null,
+  pass1FinishedAt: null,
+  pass2FinishedAt: null,
   createdAt: new Date('2025-01-02T03:04:05.000Z'),
   updatedAt: new Date('2025-01-03T03:04:05.000Z'),
 });
@@ -36,6 +38,9 @@ describe('toSheet', () => {
       checkerId: null,
       status: 'draft',
       progress: { pass1: { done: 0, total: 93 }, pass2: { done: 0, total: 93 } },
+      pass1FinishedAt: null,
+      pass2FinishedAt: null,
+      lock: null,
       createdAt: '2025-01-02T03:04:05.000Z',
       updatedAt: '2025-01-03T03:04:05.000Z',
     });
@@ -48,6 +53,16 @@ describe('toSheet', () => {
     expect(toSheet({ ...sheet, checkerId: checker }, [A]).status).toBe('draft');
     const open = toSheet({ ...sheet, readerId: reader, checkerId: checker }, [A]);
     expect(open).toMatchObject({ status: 'open', readerId: reader, checkerId: checker });
+  });
+
+  it('carries the finish times and the release lock', () => {
+    const finished = toSheet({ ...sheet, pass1FinishedAt: new Date('2025-01-04T00:00:00.000Z') }, [A], undefined, {
+      releaseId: 'cccccccc-1f7e-4b2a-9d55-0e3f2b1a7c01',
+      releaseNumber: 2,
+    });
+    expect(finished.pass1FinishedAt).toBe('2025-01-04T00:00:00.000Z');
+    expect(finished.pass2FinishedAt).toBeNull();
+    expect(finished.lock).toEqual({ releaseId: 'cccccccc-1f7e-4b2a-9d55-0e3f2b1a7c01', releaseNumber: 2 });
   });
 
   it('does not share the caller’s channel list', () => {

@@ -1,4 +1,4 @@
-import type { Sheet } from '@dialsheet/common';
+import type { DataLock, Sheet } from '@dialsheet/common';
 import { sheetRowCount } from './sheet-rules';
 import type { SheetEntity } from './sheet.entity';
 
@@ -12,7 +12,7 @@ export interface SheetDone {
 }
 
 /** `channelIds` in entry order; `done` absent means no entries yet (a sheet just planned). */
-export function toSheet(entity: SheetEntity, channelIds: string[], done: SheetDone = { pass1: 0, pass2: 0 }): Sheet {
+export function toSheet(entity: SheetEntity, channelIds: string[], done: SheetDone = { pass1: 0, pass2: 0 }, lock: DataLock | null = null): Sheet {
   const rowCount = sheetRowCount(entity.startTime, entity.endTime, entity.interval);
   const total = rowCount * channelIds.length;
   return {
@@ -29,6 +29,9 @@ export function toSheet(entity: SheetEntity, channelIds: string[], done: SheetDo
     checkerId: entity.checkerId,
     status: entity.readerId && entity.checkerId ? 'open' : 'draft',
     progress: { pass1: { done: done.pass1, total }, pass2: { done: done.pass2, total } },
+    pass1FinishedAt: entity.pass1FinishedAt?.toISOString() ?? null,
+    pass2FinishedAt: entity.pass2FinishedAt?.toISOString() ?? null,
+    lock,
     createdAt: entity.createdAt.toISOString(),
     updatedAt: entity.updatedAt.toISOString(),
   };

@@ -20,6 +20,7 @@ import { UpdateSheetDto } from './dto/update-sheet.dto';
 import { runLimitProblem, sheetProblems, sheetRowCount, sheetRows, type SheetPlan } from './sheet-rules';
 import { SheetChannelEntity } from './sheet-channel.entity';
 import { SheetEntity } from './sheet.entity';
+import { refuseIfLocked, runLock } from '../runs/run-lock';
 import { SHEET_FIELDS, sheetSnapshot, toSheet, type SheetDone } from './sheet.mapper';
 
 export const SHEET_NOT_FOUND = 'Sheet not found';
@@ -46,12 +47,13 @@ export class SheetsService {
   ) {}
 
   async list(user: AuthUser, runId: string): Promise<Sheet[]> {
-    await this.runAccess.require(user, runId);
+    const { run } = await this.runAccess.require(user, runId);
     const manager = this.dataSource.manager;
     const sheets = await manager.find(SheetEntity, { where: { runId }, order: { createdAt: 'ASC', id: 'ASC' } });
     const channels = await this.channelsOf(manager, sheets.map((s) => s.id));
     const done = await this.doneOf(manager, sheets);
-    return sheets.map((s) => toSheet(s, channels.get(s.id) ?? [], done.get(s.id)));
+    const lock = runLock(run);
+    return sheets.map((s) => toSheet(s, channels.get(s.id) ?? [], done.get(s.id), lock));
   }
 
   async get(user: AuthUser, sheetId: string): Promise<Sheet> {
@@ -73,6 +75,7 @@ export class SheetsService {
       // Campaign first, then run, as in update: the campaign lock keeps channels from vanishing meanwhile.
       await this.access.require(user, found.run.campaignId, SHEET_WRITERS, { manager, lock: true });
       const run = await this.lockRun(manager, runId);
+      refuseIfLocked(run);
       await this.assertFitsRun(manager, run, plan);
       const sheet = await manager.save(
         manager.create(SheetEntity, {
@@ -291,7 +294,13 @@ export class SheetsService {
   }
 
   private async present(manager: EntityManager, sheet: SheetEntity): Promise<Sheet> {
-    return toSheet(sheet, (await this.channelsOf(manager, [sheet.id])).get(sheet.id) ?? [], (await this.doneOf(manager, [sheet])).get(sheet.id));
+    const run = await manager.findOneBy(RunEntity, { id: sheet.runId });
+    return toSheet(
+      sheet,
+      (await this.channelsOf(manager, [sheet.id])).get(sheet.id) ?? [],
+      (await this.doneOf(manager, [sheet])).get(sheet.id),
+      run ? runLock(run) : null,
+    );
   }
 
   /**
@@ -346,6 +355,8 @@ export class SheetsService {
     // Read again under the lock: a concurrent writer may have changed or removed it.
     const sheet = await manager.findOneBy(SheetEntity, { id: sheetId });
     if (!sheet) throw new NotFoundException(SHEET_NOT_FOUND);
+    const run = await manager.findOneBy(RunEntity, { id: sheet.runId });
+    if (run) refuseIfLocked(run);
     return sheet;
   }
 }

@@ -34,9 +34,10 @@ const KNOWN_ENTITY_LABELS: Record<string, string> = {
   'display-region': 'Display region',
   sheet: 'Sheet',
   reading: 'Reading',
+  resolution: 'Resolution',
 };
 
-export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region', 'sheet', 'reading'];
+export const DEFAULT_ENTITY_TYPES = ['campaign', 'member', 'invitation', 'run', 'recording', 'channel', 'display-region', 'sheet', 'reading', 'resolution'];
 
 export function entityLabel(entityType: string): string {
   return KNOWN_ENTITY_LABELS[entityType] ?? entityType.replace(/[_-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());
