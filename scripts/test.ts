@@ -169,6 +169,9 @@ function tail(file: string, count: number): string {
   }
 }
 
+/** Length of the demo video the browser tests read: long enough for a few sheet rows, short to make. */
+const E2E_DEMO_SECONDS = 40;
+
 async function browserTests(config: TestConfig, cluster: Cluster | undefined, buildOk: boolean): Promise<Outcome> {
   if (!buildOk) return { ok: false, note: 'the build failed, so there is no app to test' };
   if (!cluster) return { ok: false, note: 'no test database' };
@@ -187,6 +190,9 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
     mailCatcherDir: freshDir(path.join(runDir, 'e2e-mail')),
     demoPassword: config.demoPassword,
     appUrl: `http://127.0.0.1:${port}`,
+    // One short demo run (kept between test runs: the generator skips unchanged files), so the
+    // browser tests transcribe the same kind of video a new user sees after `npm start`.
+    demoVideosDir: path.join(config.storageDir, 'test-run', 'demo-videos'),
   };
   let died: string | undefined;
   const services = new Services((proc, exit) => {
@@ -196,7 +202,14 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
   const toLog = { file: log };
   let outcome: Outcome;
   try {
-    console.log(`app, mail catcher, migrate and seed log to ${path.relative(repoRoot, log)}`);
+    console.log(`app, mail catcher, demo video, migrate and seed log to ${path.relative(repoRoot, log)}`);
+    const demo = await run(
+      'demo',
+      process.execPath,
+      ['--import', 'tsx', 'scripts/demo/generate-videos.ts', '--out', settings.demoVideosDir!, '--runs', '1', '--duration', String(E2E_DEMO_SECONDS)],
+      { cwd: repoRoot, output: toLog },
+    );
+    if (!succeeded(demo)) throw new Error(`the demo video generator ${describeExit(demo)}`);
     await migrateAndSeed(settings, () => toLog);
     await startMailCatcher(services, { port: mailPort, dir: settings.mailCatcherDir, output: toLog, portVariable: 'E2E_MAIL_CATCHER_PORT' });
     await startApp(services, settings, toLog);
@@ -205,7 +218,13 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
       'browser tests',
       repoRoot,
       ['--config', 'e2e/vitest.config.mts'],
-      baseEnv({ E2E_BASE_URL: settings.appUrl, DEMO_PASSWORD: settings.demoPassword, MAIL_CATCHER_DIR: settings.mailCatcherDir }),
+      baseEnv({
+        E2E_BASE_URL: settings.appUrl,
+        DEMO_PASSWORD: settings.demoPassword,
+        MAIL_CATCHER_DIR: settings.mailCatcherDir,
+        // What a test needs to start a second server on the same database and storage (restart drills).
+        E2E_APP_SETTINGS: JSON.stringify(settings),
+      }),
     );
     if (died) outcome = { ...outcome, ok: false, note: [outcome.note, died].filter(Boolean).join('; ') };
   } catch (error) {

@@ -14,7 +14,7 @@ import { copyFile, mkdir, mkdtemp, readFile, rename, rm, stat, writeFile } from 
 import os from 'node:os';
 import path from 'node:path';
 import { promisify, parseArgs } from 'node:util';
-import { type Fonts, cameraEncodeArgs, filterGraph, sendcmdScript } from './panel';
+import { type Fonts, cameraEncodeArgs, filterGraph, sendcmdScript, withRegions } from './panel';
 import { DEFAULT_DURATION_SEC, GENERATOR_VERSION, RUNS, type RunTruth, buildRunTruth } from './scenario';
 
 const run = promisify(execFile);
@@ -166,6 +166,7 @@ async function generateRun(index: number, opts: Options, fonts: Fonts, fontHashe
     const { updates, ...head } = truth;
     const document = {
       ...head,
+      displays: withRegions(head.displays),
       generator: { version: GENERATOR_VERSION, inputHash, ffmpeg: version },
       video: { file: `${base}.mp4`, sizeBytes: size, sha256 },
       updates,

@@ -67,6 +67,36 @@ const WINDOWS: readonly DigitWindow[] = [
   { key: 'P', caption: 'P STATIC PRESSURE kPa', x: 580, y: 456, w: 260, h: 120, fontSize: 88, color: COLORS.gaugeDigits, rightPad: 18 },
 ];
 
+/** A rectangle as fractions (0–1) of the frame's width and height: the shape display regions take. */
+export interface FrameRegion {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+/**
+ * Each display's digit window as a fraction of the frame, in panel order: what an engineer would
+ * draw around the digits, written into the truth file so the seed gives each run its regions
+ * from the same boxes the video shows.
+ */
+export function displayRegions(): Array<{ key: DisplayKey; region: FrameRegion }> {
+  return WINDOWS.map((w) => ({ key: w.key, region: { x: w.x / WIDTH, y: w.y / HEIGHT, w: w.w / WIDTH, h: w.h / HEIGHT } }));
+}
+
+/**
+ * The truth file's display list with each display's digit window added; a display the panel does
+ * not draw is refused here rather than left for the seed to find.
+ */
+export function withRegions<D extends { key: DisplayKey }>(displays: readonly D[]): Array<D & { region: FrameRegion }> {
+  const regions = new Map(displayRegions().map((r) => [r.key, r.region]));
+  return displays.map((d) => {
+    const region = regions.get(d.key);
+    if (!region) throw new Error(`display ${d.key} has no digit window on the panel`);
+    return { ...d, region };
+  });
+}
+
 function displayLabel(key: DisplayKey): string {
   const d = DISPLAYS.find((x) => x.key === key)!;
   return `${d.label.toUpperCase()} ${d.unit}`;

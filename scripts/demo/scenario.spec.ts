@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { filterGraph, filterPath, sendcmdScript } from './panel';
+import { displayRegions, filterGraph, filterPath, sendcmdScript, withRegions } from './panel';
 import {
   DISPLAYS,
+  HEIGHT,
   PLANT,
   RUNS,
   approach,
@@ -17,6 +18,7 @@ import {
   trend,
   updateSchedule,
   updateShownOnFrame,
+  WIDTH,
 } from './scenario';
 
 const display = (key: string) => DISPLAYS.find((d) => d.key === key)!;
@@ -208,5 +210,58 @@ describe('panel drawing', () => {
   it('escapes paths for the filter graph and refuses ones it cannot carry', () => {
     expect(filterPath('C:\\fonts\\a.ttf')).toBe("'C\\:\\\\fonts\\\\a.ttf'");
     expect(() => filterPath("/media/it's")).toThrow(/single quote/);
+  });
+});
+
+describe('display regions in the truth file', () => {
+  const truth = buildRunTruth(RUNS[0], 10);
+  const graph = filterGraph(truth, { regular: '/fonts/regular.ttf', bold: '/fonts/bold.ttf' }, '/work/commands.txt');
+  const regions = displayRegions();
+  const pixels = (r: { x: number; y: number; w: number; h: number }) => ({ x: r.x * WIDTH, y: r.y * HEIGHT, w: r.w * WIDTH, h: r.h * HEIGHT });
+
+  it('gives every display exactly one region, in panel order', () => {
+    expect(regions.map((r) => r.key)).toEqual(DISPLAYS.map((d) => d.key));
+    const listed = withRegions(truth.displays);
+    expect(listed.map((d) => d.key)).toEqual(['T1', 'T2', 'T3', 'T4', 'V', 'P']);
+    expect(listed.map((d) => d.region)).toEqual(regions.map((r) => r.region));
+    // The rest of each display's entry is kept as it was.
+    expect(listed[4]).toMatchObject({ key: 'V', unit: 'V', resolution: 0.001 });
+    expect(() => withRegions([{ key: 'X' as never }])).toThrow(/display X has no digit window/);
+  });
+
+  it('keeps every region inside the frame and apart from the others', () => {
+    for (const { key, region: r } of regions) {
+      expect(r.x, key).toBeGreaterThanOrEqual(0);
+      expect(r.y, key).toBeGreaterThanOrEqual(0);
+      expect(r.w, key).toBeGreaterThan(0);
+      expect(r.h, key).toBeGreaterThan(0);
+      expect(r.x + r.w, key).toBeLessThanOrEqual(1);
+      expect(r.y + r.h, key).toBeLessThanOrEqual(1);
+    }
+    for (const [i, a] of regions.entries()) {
+      for (const b of regions.slice(i + 1)) {
+        const apart = a.region.x + a.region.w <= b.region.x || b.region.x + b.region.w <= a.region.x ||
+          a.region.y + a.region.h <= b.region.y || b.region.y + b.region.h <= a.region.y;
+        expect(apart, `${a.key} and ${b.key}`).toBe(true);
+      }
+    }
+  });
+
+  it('is the digit window the video draws, with the display’s digits inside it', () => {
+    for (const { key, region } of regions) {
+      const p = pixels(region);
+      // Whole pixels: the fractions are exact enough to give back the drawn box.
+      for (const v of Object.values(p)) expect(Math.abs(v - Math.round(v)), key).toBeLessThan(1e-9);
+      const [x, y, w, h] = [p.x, p.y, p.w, p.h].map(Math.round);
+      expect(graph, key).toContain(`drawbox=x=${x}:y=${y}:w=${w}:h=${h}:color=`);
+      // The digits: right-aligned at an anchor inside the window, top and font size within it.
+      const digits = new RegExp(`drawtext@${key}=[^,]*:x=(\\d+)-tw:y=(\\d+):fontsize=(\\d+)`).exec(graph);
+      expect(digits, key).not.toBeNull();
+      const [anchor, top, size] = digits!.slice(1).map(Number);
+      expect(anchor).toBeGreaterThan(x);
+      expect(anchor).toBeLessThanOrEqual(x + w);
+      expect(top).toBeGreaterThanOrEqual(y);
+      expect(top + size).toBeLessThanOrEqual(y + h);
+    }
   });
 });

@@ -5,14 +5,15 @@ import { DataSource } from 'typeorm';
 import { ConfigError, loadConfig, validateEnv } from '../config/env';
 import { buildDataSourceOptions } from '../database/data-source-options';
 import { DEMO_ACCOUNTS, DEMO_CAMPAIGN_NAME, seedDemo } from '../database/seed/demo-seed';
-import { ingestDemoVideos } from '../database/seed/demo-videos';
+import { DEMO_SHEET, ingestDemoVideos } from '../database/seed/demo-videos';
 import { SeedModule } from '../database/seed/seed.module';
 import { RecordingsService } from '../modules/recordings/recordings.service';
 import { RunsService } from '../modules/runs/runs.service';
 
 /**
- * Creates the demo accounts, campaign and runs when missing; with DEMO_VIDEOS_DIR set, also
- * gives each run its generated video once. Safe to run any number of times.
+ * Creates the demo accounts, campaign, runs and channels when missing; with DEMO_VIDEOS_DIR set,
+ * also gives each run its generated video, display regions and a sheet for the demo reader and
+ * checker, once. Safe to run any number of times.
  */
 async function main(): Promise<void> {
   const logger = new Logger('seed');
@@ -23,7 +24,8 @@ async function main(): Promise<void> {
     const r = await seedDemo(dataSource, env.demoPassword);
     logger.log(
       `demo data ready: ${r.usersCreated} account(s) created, campaign "${DEMO_CAMPAIGN_NAME}" ` +
-        `${r.campaignCreated ? 'created' : 'already there'}, ${r.membersAdded} membership(s) and ${r.runsCreated} run(s) added`,
+        `${r.campaignCreated ? 'created' : 'already there'}, ${r.membersAdded} membership(s), ${r.runsCreated} run(s) and ` +
+        `${r.channelsCreated} channel(s) added`,
     );
     logger.log(`accounts: ${DEMO_ACCOUNTS.map((a) => a.email).join(', ')} (password from DEMO_PASSWORD)`);
   } finally {
@@ -44,6 +46,10 @@ async function main(): Promise<void> {
       runs: app.get(RunsService),
     });
     logger.log(`demo videos: ${result.ingested.length} stored, ${result.skipped.length} run(s) already had one or no file was found`);
+    logger.log(
+      `demo reading set-up: display regions set on ${result.regionsSet.length} run(s), ` +
+        `sheet “${DEMO_SHEET.name}” planned on ${result.sheetsCreated.length} run(s) for reader@demo.test and checker@demo.test`,
+    );
   } finally {
     await app.close();
   }
