@@ -50,6 +50,14 @@ export function createAppRoutes(): RouteObject[] {
                   lazy: () => import('./routes/app/run').then((m) => ({ Component: m.RunRoute })),
                 },
                 {
+                  path: 'sheets/:sheetId',
+                  lazy: () => import('./routes/app/sheet').then((m) => ({ Component: m.SheetRoute })),
+                },
+                {
+                  path: 'sheets/:sheetId/entry',
+                  lazy: () => import('./routes/app/sheet-entry').then((m) => ({ Component: m.SheetEntryRoute })),
+                },
+                {
                   path: 'channels',
                   lazy: () => import('./routes/app/campaign-channels').then((m) => ({ Component: m.CampaignChannelsRoute })),
                 },

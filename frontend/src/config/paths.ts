@@ -33,6 +33,14 @@ export const paths = {
     path: '/campaigns/:campaignId/runs/:runId',
     getHref: (campaignId: string, runId: string) => `/campaigns/${campaignId}/runs/${runId}`,
   },
+  sheet: {
+    path: '/campaigns/:campaignId/sheets/:sheetId',
+    getHref: (campaignId: string, sheetId: string) => `/campaigns/${campaignId}/sheets/${sheetId}`,
+  },
+  sheetEntry: {
+    path: '/campaigns/:campaignId/sheets/:sheetId/entry',
+    getHref: (campaignId: string, sheetId: string) => `/campaigns/${campaignId}/sheets/${sheetId}/entry`,
+  },
   campaignAudit: {
     path: '/campaigns/:campaignId/audit',
     getHref: (campaignId: string) => `/campaigns/${campaignId}/audit`,

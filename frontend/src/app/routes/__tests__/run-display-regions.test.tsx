@@ -46,6 +46,9 @@ function renderRunPage(roles: CampaignRole[], regions: DisplayRegion[]) {
       'GET /api/runs/:runId': { body: run },
       'GET /api/runs/:runId/recording': { body: recording },
       'GET /api/campaigns/:campaignId/channels': { body: [t1, t2] },
+      // The run page also lists the run's reading sheets, with member names.
+      'GET /api/runs/:runId/sheets': { body: [] },
+      'GET /api/campaigns/:campaignId/members': { body: [] },
       'GET /api/runs/:runId/display-regions': () => ({ body: stored }),
       'PUT /api/runs/:runId/display-regions': ({ body }: StubRequest) => {
         stored = (body as SetDisplayRegionsRequest).regions.map((r) => ({ runId, ...r }));

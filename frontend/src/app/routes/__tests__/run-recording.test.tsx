@@ -29,6 +29,9 @@ function renderRun(
       'GET /api/runs/:runId/recording': recording ?? apiError(404, 'This run has no recording yet'),
       'GET /api/campaigns/:campaignId/runs': { body: [run] },
       'GET /api/campaigns/:campaignId/channels': { body: [] },
+      // The run page also lists the run's reading sheets, with member names.
+      'GET /api/runs/:runId/sheets': { body: [] },
+      'GET /api/campaigns/:campaignId/members': { body: [] },
       ...routes,
     },
   });

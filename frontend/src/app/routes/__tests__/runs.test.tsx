@@ -35,6 +35,9 @@ describe('runs list', () => {
         'GET /api/runs/:runId': ({ params }: StubRequest) => ({ body: created.find((r) => r.id === params.runId) }),
         'GET /api/runs/:runId/recording': apiError(404, 'This run has no recording yet'),
         'GET /api/campaigns/:campaignId/channels': { body: [] },
+        // The run page also lists the run's reading sheets, with member names.
+        'GET /api/runs/:runId/sheets': { body: [] },
+        'GET /api/campaigns/:campaignId/members': { body: [] },
       },
     });
 

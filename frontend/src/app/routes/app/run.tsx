@@ -2,6 +2,7 @@ import { useCallback, useRef, useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Breadcrumb, Button, Col, Row, Skeleton, Space } from 'antd';
 import { EditOutlined } from '@ant-design/icons';
+import { toTestTime, type SyncMarks } from '@dialsheet/common';
 import { paths } from '@/config/paths';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState } from '@/components/feedback/error-state';
@@ -21,6 +22,17 @@ import { useChannels } from '@/features/channels/api/get-channels';
 import { useRegionEditor } from '@/features/channels/hooks/use-region-editor';
 import { RegionOverlay } from '@/features/channels/components/region-overlay';
 import { DisplayRegionsCard } from '@/features/channels/components/display-regions-card';
+import { useMembers } from '@/features/members/api/get-members';
+import { RunSheetsCard } from '@/features/sheets/components/run-sheets-card';
+import { mayPlanSheets } from '@/features/sheets/utils/sheet-access';
+
+function safeTestTime(sync: SyncMarks, videoTime: number): number | null {
+  try {
+    return toTestTime(sync, videoTime);
+  } catch {
+    return null;
+  }
+}
 
 export function RunRoute() {
   const { campaignId = '', runId = '' } = useParams();
@@ -33,6 +45,7 @@ export function RunRoute() {
   const [frame, setFrame] = useState<SyncFrame | null>(null);
   const channels = useChannels({ campaignId });
   const regionEditor = useRegionEditor({ runId, channels: channels.data ?? [] });
+  const members = useMembers({ campaignId });
   useDocumentTitle(run.data ? `${run.data.name} · Runs` : 'Run');
 
   const onFrameChange = useCallback((next: FrameInfo) => {
@@ -71,6 +84,14 @@ export function RunRoute() {
     : probe
       ? { width: probe.displayWidth, height: probe.displayHeight }
       : null;
+  // Sheet times are test times: a sheet needs the sync marks, and the recording's length (in test
+  // time) bounds its end.
+  const sheetBlocker = !current.sync
+    ? 'Set the time sync first (in the panel above): sheet times are test times.'
+    : !ready
+      ? 'Wait until the recording is processed: its length limits where a sheet can end.'
+      : null;
+  const maxEndTime = current.sync && probe ? safeTestTime(current.sync, probe.durationSec) : null;
   const regionOverlay =
     channels.data && channels.data.length > 0 ? (
       <RegionOverlay
@@ -121,6 +142,16 @@ export function RunRoute() {
             {recording.data ? <RecordingFacts recording={recording.data} /> : null}
             <RunDetails run={current} />
           </Space>
+        </Col>
+        <Col xs={24}>
+          <RunSheetsCard
+            runId={current.id}
+            channels={channels.data ?? []}
+            members={members.data}
+            canPlan={mayPlanSheets(campaign.myRoles) && campaign.status !== 'archived'}
+            planBlocker={sheetBlocker}
+            maxEndTime={maxEndTime}
+          />
         </Col>
       </Row>
       {canEdit ? (

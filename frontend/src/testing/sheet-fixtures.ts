@@ -1,0 +1,122 @@
+import type { Channel, MismatchCell, Reading, ReadingPass, Resolution, Sheet, SheetMismatches, SheetRow } from '@dialsheet/common';
+
+// Wire-shaped sheets, readings and mismatches for component tests of the sheet pages.
+const at = '2026-03-02T09:15:00.000Z';
+export const SHEET_CAMPAIGN_ID = '10000000-0000-4000-8000-000000000001';
+export const SHEET_RUN_ID = '30000000-0000-4000-8000-000000000001';
+export const SHEET_ID = '60000000-0000-4000-8000-000000000001';
+export const LEAD_ID = '00000000-0000-4000-8000-000000000001';
+export const READER_ID = '00000000-0000-4000-8000-000000000002';
+export const CHECKER_ID = '00000000-0000-4000-8000-000000000003';
+
+export function makeSheetChannel(overrides: Partial<Channel> = {}): Channel {
+  return {
+    id: '50000000-0000-4000-8000-000000000001',
+    campaignId: SHEET_CAMPAIGN_ID,
+    name: 'Warm stream inlet temperature',
+    symbol: 'T1',
+    quantity: 'temperature',
+    rawUnit: '°C',
+    resolution: 0.1,
+    rangeMin: -50,
+    rangeMax: 200,
+    fullScale: null,
+    operatingMin: null,
+    operatingMax: null,
+    accuracy: null,
+    plausibleMin: 5,
+    plausibleMax: 90,
+    position: 0,
+    createdAt: at,
+    updatedAt: at,
+    ...overrides,
+  };
+}
+
+export function makeSheet(overrides: Partial<Sheet> = {}): Sheet {
+  return {
+    id: SHEET_ID,
+    campaignId: SHEET_CAMPAIGN_ID,
+    runId: SHEET_RUN_ID,
+    name: 'Warm-up, every 2 s',
+    startTime: 0,
+    endTime: 10,
+    interval: 2,
+    channelIds: ['50000000-0000-4000-8000-000000000001'],
+    rowCount: 6,
+    readerId: READER_ID,
+    checkerId: CHECKER_ID,
+    status: 'open',
+    progress: { pass1: { done: 0, total: 6 }, pass2: { done: 0, total: 6 } },
+    pass1FinishedAt: null,
+    pass2FinishedAt: null,
+    lock: null,
+    createdAt: at,
+    updatedAt: at,
+    ...overrides,
+  };
+}
+
+export function makeRows(count: number, interval = 2): SheetRow[] {
+  return Array.from({ length: count }, (_, index) => ({ index, testTime: index * interval }));
+}
+
+export function makeReading(overrides: Partial<Reading> & Pick<Reading, 'rowIndex' | 'channelId' | 'pass' | 'rawText'>): Reading {
+  const text = overrides.rawText.trim();
+  const flag = text === '' ? 'blank' : text === '#unreadable' ? 'unreadable' : text === '#ambiguous' ? 'ambiguous' : null;
+  return {
+    sheetId: SHEET_ID,
+    value: flag ? null : Number(text),
+    flag,
+    frameTime: overrides.rowIndex * 2 + 0.5,
+    enteredBy: overrides.pass === 1 ? READER_ID : CHECKER_ID,
+    version: 1,
+    updatedAt: at,
+    warnings: [],
+    ...overrides,
+  };
+}
+
+/** One reading per row for one channel and pass, from a list of typed texts. */
+export function passReadings(pass: ReadingPass, channelId: string, texts: string[]): Reading[] {
+  return texts.map((rawText, rowIndex) => makeReading({ rowIndex, channelId, pass, rawText }));
+}
+
+export function makeResolution(overrides: Partial<Resolution> & Pick<Resolution, 'rowIndex' | 'channelId' | 'rawText'>): Resolution {
+  return {
+    sheetId: SHEET_ID,
+    value: Number(overrides.rawText),
+    flag: null,
+    reason: 'The frame shows it clearly',
+    resolvedBy: CHECKER_ID,
+    resolvedAt: at,
+    version: 1,
+    ...overrides,
+  };
+}
+
+export function makeMismatchCell(pass1: Reading, pass2: Reading, resolution: Resolution | null = null): MismatchCell {
+  return {
+    rowIndex: pass1.rowIndex,
+    testTime: pass1.rowIndex * 2,
+    channelId: pass1.channelId,
+    pass1,
+    pass2,
+    reasons: [`The passes differ: "${pass1.rawText}" (pass 1) and "${pass2.rawText}" (pass 2)`],
+    resolution,
+  };
+}
+
+export function makeMismatches(cells: MismatchCell[], overrides: Partial<SheetMismatches> = {}): SheetMismatches {
+  const resolved = cells.filter((c) => c.resolution).length;
+  return {
+    sheetId: SHEET_ID,
+    complete: true,
+    cells,
+    open: cells.length - resolved,
+    resolved,
+    byChannel: [],
+    byPerson: [],
+    ...overrides,
+  };
+}
