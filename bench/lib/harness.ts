@@ -21,6 +21,8 @@ export interface BenchResult {
   target: string;
   ratio?: number;
   memory_mb?: number;
+  /** Further figures a benchmark reports beside the headline (counts, other percentiles). */
+  [figure: string]: string | number | undefined;
 }
 
 type Cleanup = () => Promise<void> | void;
@@ -137,11 +139,17 @@ export interface Stack {
   api: ApiClient;
   /** The demo campaign, where the lead may create runs and upload. */
   campaignId: string;
+  /** Password of every seeded demo account (reader@demo.test, checker@demo.test, ...). */
+  demoPassword: string;
+  /** The app's database, for set-up in bulk and for checking what was stored. */
+  databaseUrl: string;
 }
 
 export interface StackOptions {
   /** WORKER=on runs the processing jobs inside the app process. */
   worker: boolean;
+  /** Extra postgresql.conf settings, e.g. to load pg_stat_statements for a profile. */
+  postgresSettings?: Record<string, string>;
 }
 
 const BENCH_DATABASE = 'dialsheet_bench';
@@ -157,6 +165,7 @@ export async function startStack(scratch: Scratch, root: string, options: StackO
   const load = os.loadavg()[0];
   console.log(`machine: ${os.cpus().length} CPUs, load average ${load.toFixed(1)} (1 min) at start${load > os.cpus().length ? ' — busy, figures will be pessimistic' : ''}`);
   const cluster = await defineCluster({ dir: path.join(root, 'postgres'), port: await freePort(), throwaway: true });
+  Object.assign(cluster.settings, options.postgresSettings ?? {});
   scratch.add('remove the benchmark database cluster', () => destroyCluster(cluster));
   await initCluster(cluster);
   await startCluster(cluster);
@@ -168,12 +177,13 @@ export async function startStack(scratch: Scratch, root: string, options: StackO
   const logFile = path.join(root, 'app.log');
   fs.mkdirSync(storageDir, { recursive: true });
   const demoPassword = `bench-${randomBytes(9).toString('base64url')}`;
+  const appDatabaseUrl = databaseUrl(cluster, BENCH_DATABASE);
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     PORT: String(port),
     HOST: '127.0.0.1',
     APP_URL: baseUrl,
-    DATABASE_URL: databaseUrl(cluster, BENCH_DATABASE),
+    DATABASE_URL: appDatabaseUrl,
     STORAGE_DIR: storageDir,
     STORAGE_DRIVER: 'local',
     JWT_SECRET: randomBytes(32).toString('hex'),
@@ -204,7 +214,7 @@ export async function startStack(scratch: Scratch, root: string, options: StackO
   console.log(
     `app ready in ${secondsSince(started).toFixed(1)} s: ${baseUrl} (WORKER=${env.WORKER}), PostgreSQL on 127.0.0.1:${cluster.port}, signed in as the seeded lead`,
   );
-  return { baseUrl, app, storageDir, logFile, api, campaignId: campaign.id };
+  return { baseUrl, app, storageDir, logFile, api, campaignId: campaign.id, demoPassword, databaseUrl: appDatabaseUrl };
 }
 
 /**

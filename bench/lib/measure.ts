@@ -75,3 +75,41 @@ export class RssSampler {
     }
   }
 }
+
+/** Clock ticks per second of /proc/<pid>/stat times (USER_HZ); 100 on every common Linux build. */
+const USER_HZ = 100;
+
+/** CPU time (user + system) a process has used so far, in ms; undefined when it is gone. */
+export function cpuMsOf(pid: number): number | undefined {
+  let stat: string;
+  try {
+    stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+  } catch {
+    return undefined;
+  }
+  // The command name (field 2) may hold spaces; the fields after its closing parenthesis do not.
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  // utime and stime are fields 14 and 15 of the whole line, 12 and 13 after the name.
+  return ((Number(fields[11]) + Number(fields[12])) * 1000) / USER_HZ;
+}
+
+/** Process ids whose parent is `pid` (e.g. the backends of a PostgreSQL postmaster). */
+export function childPids(pid: number): number[] {
+  const children: number[] = [];
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
+      const ppid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      if (ppid === pid) children.push(Number(entry));
+    } catch {
+      // Exited while we looked.
+    }
+  }
+  return children;
+}
+
+/** CPU time of a process and all its children alive now, in ms. */
+export function treeCpuMs(pid: number): number {
+  return [pid, ...childPids(pid)].reduce((sum, p) => sum + (cpuMsOf(p) ?? 0), 0);
+}
