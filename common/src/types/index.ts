@@ -8,3 +8,4 @@ export * from './run';
 export * from './reading';
 export * from './channel';
 export * from './sheet';
+export * from './analysis';
