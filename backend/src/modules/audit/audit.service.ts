@@ -32,14 +32,22 @@ export class AuditService {
    * roll back together. There is deliberately no update or delete counterpart.
    */
   async record(manager: EntityManager, entry: AuditRecord): Promise<void> {
-    const row = manager.create(AuditEntryEntity, {
-      ...entry,
-      before: entry.before ?? null,
-      after: entry.after ?? null,
-      reason: entry.reason?.trim() || null,
-    });
+    await this.recordMany(manager, [entry]);
+  }
+
+  /** Several rows in one statement (a saved row of readings), in the order given. */
+  async recordMany(manager: EntityManager, entries: readonly AuditRecord[]): Promise<void> {
+    if (entries.length === 0) return;
+    const rows = entries.map((entry) =>
+      manager.create(AuditEntryEntity, {
+        ...entry,
+        before: entry.before ?? null,
+        after: entry.after ?? null,
+        reason: entry.reason?.trim() || null,
+      }),
+    );
     // TypeORM's partial type cannot express free-form jsonb values; the entity itself is complete.
-    await manager.insert(AuditEntryEntity, row as QueryDeepPartialEntity<AuditEntryEntity>);
+    await manager.insert(AuditEntryEntity, rows as QueryDeepPartialEntity<AuditEntryEntity>[]);
   }
 
   async list(user: AuthUser, campaignId: string, query: AuditQueryDto): Promise<Page<AuditEntry>> {

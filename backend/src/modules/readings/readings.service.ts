@@ -13,7 +13,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
 import { DataSource, EntityManager, In } from 'typeorm';
 import type { AuthUser } from '../../core/auth-user';
-import { AuditService } from '../audit/audit.service';
+import { AuditService, type AuditRecord } from '../audit/audit.service';
 import { CampaignAccessService, type CampaignAccess } from '../campaigns/campaign-access.service';
 import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
 import { ChannelEntity } from '../channels/channel.entity';
@@ -110,13 +110,17 @@ export class ReadingsService {
         });
       }
 
-      const out: Reading[] = [];
+      // First entries (the usual case) go in as one insert with one audit insert, so a row of
+      // six readings costs two statements rather than twelve; changes are rarer and go one by one.
+      const out: (Reading | null)[] = dto.readings.map(() => null);
+      const inserts: { index: number; entity: ReadingEntity }[] = [];
+      const audits: AuditRecord[] = [];
       for (const [i, input] of dto.readings.entries()) {
         const decision = decisions[i];
         const result = parsed[i];
         const existing = storedBy.get(input.channelId);
         if (decision.kind === 'unchanged' && existing) {
-          out.push(toReading(existing, byId.get(input.channelId)));
+          out[i] = toReading(existing, byId.get(input.channelId));
           continue;
         }
         if (!result || result.kind === 'error') continue;
@@ -128,21 +132,31 @@ export class ReadingsService {
           frameTime: input.frameTime ?? null,
           enteredBy: user.id,
         };
-        let saved: ReadingEntity;
         if (decision.kind === 'update' && existing) {
           const before = { rawText: existing.rawText, frameTime: existing.frameTime, version: existing.version };
-          saved = await manager.save(ReadingEntity, Object.assign(existing, fields, { version: decision.version }));
-          await this.recordAudit(manager, user, sheet, saved, 'update', before);
+          const saved = await manager.save(ReadingEntity, Object.assign(existing, fields, { version: decision.version }));
+          audits.push(this.auditOf(user, sheet, saved, 'update', before));
+          out[i] = toReading(saved, byId.get(input.channelId));
         } else {
-          saved = await manager.save(
-            ReadingEntity,
-            manager.create(ReadingEntity, { sheetId: sheet.id, rowIndex, channelId: input.channelId, pass: dto.pass, version: 1, ...fields }),
-          );
-          await this.recordAudit(manager, user, sheet, saved, 'create', null);
+          inserts.push({
+            index: i,
+            entity: manager.create(ReadingEntity, { sheetId: sheet.id, rowIndex, channelId: input.channelId, pass: dto.pass, version: 1, ...fields }),
+          });
         }
-        out.push(toReading(saved, byId.get(input.channelId)));
       }
-      return { readings: out };
+      if (inserts.length > 0) {
+        // insert() fills the generated id and timestamps into the entities it was given.
+        await manager.insert(
+          ReadingEntity,
+          inserts.map((x) => x.entity),
+        );
+        for (const { index, entity } of inserts) {
+          audits.push(this.auditOf(user, sheet, entity, 'create', null));
+          out[index] = toReading(entity, byId.get(entity.channelId));
+        }
+      }
+      await this.audit.recordMany(manager, audits);
+      return { readings: out.filter((r): r is Reading => r !== null) };
     });
   }
 
@@ -322,15 +336,14 @@ export class ReadingsService {
     });
   }
 
-  private async recordAudit(
-    manager: EntityManager,
+  private auditOf(
     user: AuthUser,
     sheet: SheetEntity,
     reading: ReadingEntity,
     action: 'create' | 'update',
     before: Record<string, unknown> | null,
-  ): Promise<void> {
-    await this.audit.record(manager, {
+  ): AuditRecord {
+    return {
       campaignId: sheet.campaignId,
       actorId: user.id,
       entityType: 'reading',
@@ -346,7 +359,7 @@ export class ReadingsService {
         frameTime: reading.frameTime,
         version: reading.version,
       },
-    });
+    };
   }
 
   /**
