@@ -260,7 +260,11 @@ describe('demo seed', () => {
           WHERE u.email = 'lead@demo.test' AND a.entity_type = 'display-region' AND a.action = 'update'`,
       );
       expect(audit).toHaveLength(1);
-      const [run1] = await db.query('SELECT id FROM runs WHERE name = $1', [DEMO_RUNS[0].name]);
+      // Other test files make runs with the same name in their own campaigns: look in the demo's.
+      const [run1] = await db.query('SELECT r.id FROM runs r JOIN campaigns c ON c.id = r.campaign_id WHERE r.name = $1 AND c.name = $2', [
+        DEMO_RUNS[0].name,
+        DEMO_CAMPAIGN_NAME,
+      ]);
       expect(audit[0].entity_id).toBe(run1.id);
       expect(audit[0].before).toEqual({ regions: [] });
       expect(audit[0].after.regions).toHaveLength(6);
