@@ -38,7 +38,7 @@ import {
 import { FinishPassDialog } from './finish-pass-dialog';
 import { GoToRowDialog } from './go-to-row-dialog';
 import { QueueStatus } from './queue-status';
-import { drawRegionCrop } from './region-crop';
+import { drawRegionCrop, drawRegionCrops } from './region-crop';
 import { RowList } from './row-list';
 import { RowProblem } from './row-problem';
 
@@ -245,11 +245,12 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
 
   const drawCrops = useCallback(
     (video: HTMLVideoElement) => {
-      channels.forEach((channel, i) => {
+      const targets = channels.flatMap((channel, i) => {
         const canvas = canvases.current[i];
         const region = regionByChannel.get(channel.id);
-        if (canvas && region) drawRegionCrop(canvas, video, region);
+        return canvas && region ? [{ canvas, region }] : [];
       });
+      drawRegionCrops(video, targets, () => playerRef.current?.visibleVideo() === video);
     },
     [channels, regionByChannel],
   );

@@ -5,13 +5,14 @@ const CROP_HEIGHT = 64;
 const CROP_MAX_WIDTH = 260;
 
 /**
- * Draws one display region of the frame on screen into its canvas, enlarged. Regions are fractions
+ * Draws one display region of the frame on screen (the <video>, or one copy of its frame) into
+ * its canvas, enlarged. Regions are fractions
  * of the picture as shown, which is what videoWidth × videoHeight describe (rotation applied).
  * Returns false when there is nothing to draw yet (no frame decoded, no 2D context).
  */
-export function drawRegionCrop(canvas: HTMLCanvasElement, video: HTMLVideoElement, region: DisplayRegion): boolean {
-  const vw = video.videoWidth;
-  const vh = video.videoHeight;
+export function drawRegionCrop(canvas: HTMLCanvasElement, source: HTMLVideoElement | ImageBitmap, region: DisplayRegion): boolean {
+  const vw = 'videoWidth' in source ? source.videoWidth : source.width;
+  const vh = 'videoHeight' in source ? source.videoHeight : source.height;
   if (!vw || !vh) return false;
   const sx = region.x * vw;
   const sy = region.y * vh;
@@ -37,6 +38,38 @@ export function drawRegionCrop(canvas: HTMLCanvasElement, video: HTMLVideoElemen
   }
   if (!context) return false;
   context.imageSmoothingQuality = 'high';
-  context.drawImage(video, sx, sy, sw, sh, 0, 0, width, height);
+  context.drawImage(source, sx, sy, sw, sh, 0, 0, width, height);
   return true;
+}
+
+export interface CropTarget {
+  canvas: HTMLCanvasElement;
+  region: DisplayRegion;
+}
+
+/**
+ * Draws every crop from one copy of the frame. Each drawImage straight from a <video> copies the
+ * whole decoded frame again, which without a GPU cost several milliseconds per display; one
+ * createImageBitmap and six cuts from it cost about one. `stillCurrent` is asked once the copy is
+ * ready, so a frame the reader has already stepped past is not drawn.
+ */
+export function drawRegionCrops(video: HTMLVideoElement, targets: readonly CropTarget[], stillCurrent: () => boolean): void {
+  if (targets.length === 0 || !video.videoWidth) return;
+  const direct = () => {
+    if (stillCurrent()) for (const t of targets) drawRegionCrop(t.canvas, video, t.region);
+  };
+  if (typeof createImageBitmap !== 'function') {
+    direct();
+    return;
+  }
+  createImageBitmap(video).then(
+    (bitmap) => {
+      try {
+        if (stillCurrent()) for (const t of targets) drawRegionCrop(t.canvas, bitmap, t.region);
+      } finally {
+        bitmap.close();
+      }
+    },
+    direct,
+  );
 }
