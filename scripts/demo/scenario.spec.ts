@@ -215,7 +215,7 @@ describe('panel drawing', () => {
 
 describe('display regions in the truth file', () => {
   const truth = buildRunTruth(RUNS[0], 10);
-  const graph = filterGraph(truth, { regular: '/fonts/regular.ttf', bold: '/fonts/bold.ttf' }, '/work/commands.txt');
+  const graph = filterGraph(truth, { regular: 'fonts/regular.ttf', bold: 'fonts/bold.ttf' }, 'demo/commands.txt');
   const regions = displayRegions();
   const pixels = (r: { x: number; y: number; w: number; h: number }) => ({ x: r.x * WIDTH, y: r.y * HEIGHT, w: r.w * WIDTH, h: r.h * HEIGHT });
 

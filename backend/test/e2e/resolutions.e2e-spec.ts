@@ -1,7 +1,7 @@
 import type { AuditEntry, Channel, Page, Resolution, Run, Sheet, SheetMismatches } from '@dialsheet/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
-import { campaignFixture, createSyncedRun, type Fixture } from '../helpers/recordings';
+import { campaignFixture, createChannel, createSyncedRun, type Fixture } from '../helpers/recordings';
 import { addMember, bearer, createUser, login, startTestApp, type Http, type TestApp } from '../helpers/test-app';
 
 function call(http: Http, method: 'get' | 'post' | 'put' | 'patch' | 'delete', path: string, token: string) {
@@ -61,11 +61,7 @@ describe('mismatches and resolutions', () => {
     media = new TestMedia();
     f = await campaignFixture(t, 'Heat-recovery core resolutions');
     channels = [];
-    for (const g of gauges) {
-      const res = await call(t.http, 'post', `/api/campaigns/${f.campaign.id}/channels`, f.tokens.lead).send(g);
-      expect(res.status, JSON.stringify(res.body)).toBe(201);
-      channels.push(res.body as Channel);
-    }
+    for (const g of gauges) channels.push(await createChannel(t.http, f.tokens.lead, f.campaign.id, g));
     run = await createSyncedRun(t.http, f.tokens.lead, f.campaign.id, media);
   }, 120_000);
   afterAll(async () => {

@@ -2,7 +2,7 @@ import type { AuditEntry, Channel, Page, Run, Sheet, SheetRow } from '@dialsheet
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
-import { campaignFixture, createRun, MEMBERS, upload, VIEWERS, waitForStatus, type Fixture } from '../helpers/recordings';
+import { campaignFixture, createChannel, createRun, MEMBERS, upload, VIEWERS, waitForStatus, type Fixture } from '../helpers/recordings';
 import { addMember, bearer, createUser, login, startTestApp, TEST_APP_URL, waitForMail, type Http, type TestApp } from '../helpers/test-app';
 
 function call(http: Http, method: 'get' | 'post' | 'patch' | 'put' | 'delete', path: string, token?: string) {
@@ -15,12 +15,6 @@ const gauges = [
   { name: 'Flow meter output', symbol: 'V1', quantity: 'voltage', rawUnit: 'V', resolution: 0.001, rangeMin: 0, rangeMax: 10 },
   { name: 'Supply pressure', symbol: 'P1', quantity: 'pressure', rawUnit: 'kPa', resolution: 1, rangeMin: 0, rangeMax: 600 },
 ];
-
-async function createChannel(http: Http, token: string, campaignId: string, body: object): Promise<Channel> {
-  const res = await call(http, 'post', `/api/campaigns/${campaignId}/channels`, token).send(body);
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  return res.body as Channel;
-}
 
 async function auditOf(http: Http, token: string, campaignId: string): Promise<AuditEntry[]> {
   const res = await call(http, 'get', `/api/campaigns/${campaignId}/audit?entityType=sheet&limit=200`, token);

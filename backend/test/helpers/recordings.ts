@@ -1,4 +1,4 @@
-import type { Campaign, Recording, RecordingStatus, Run } from '@dialsheet/common';
+import type { Campaign, Channel, Recording, RecordingStatus, Run } from '@dialsheet/common';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type request from 'supertest';
@@ -105,4 +105,10 @@ export async function createSyncedRun(http: Http, token: string, campaignId: str
   const sync = await http.put(`/api/runs/${run.id}/sync`).set(bearer(token)).send({ first: { videoTime: 2, testTime: 0 } });
   expect(sync.status, JSON.stringify(sync.body)).toBe(200);
   return sync.body as Run;
+}
+
+export async function createChannel(http: Http, token: string, campaignId: string, body: object): Promise<Channel> {
+  const res = await http.post(`/api/campaigns/${campaignId}/channels`).set(bearer(token)).send(body);
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  return res.body as Channel;
 }

@@ -1,4 +1,5 @@
 import {
+  compareRows,
   parseReading,
   type CampaignRole,
   type PassFinish,
@@ -256,18 +257,9 @@ export class ReadingsService {
       const pass1 = entries.find((r) => r.pass === 1);
       const pass2 = entries.find((r) => r.pass === 2);
       if (!pass1 || !pass2) throw new ConflictException('This cell does not hold both passes yet, so there is nothing to resolve');
-      const cell = computeMismatches({
-        sheetId: sheet.id,
-        channelIds: [channelId],
-        rowTimes: Array.from({ length: rowIndex + 1 }, () => 0),
-        pass1: [toReading(pass1, channel)],
-        pass2: [toReading(pass2, channel)],
-        resolutions: [],
-        names: new Map(),
-        complete: false,
-        parse: { decimalComma: access.campaign.decimalComma },
-      }).cells[0];
-      if (!cell) throw new ConflictException('The two passes agree on this cell, so there is nothing to resolve');
+      const parse = { decimalComma: access.campaign.decimalComma, channelIds: [channelId] };
+      const cell = compareRows({ [channelId]: pass1.rawText }, { [channelId]: pass2.rawText }, parse)[channelId];
+      if (cell.status !== 'mismatch') throw new ConflictException('The two passes agree on this cell, so there is nothing to resolve');
 
       const existing = await manager.findOne(ResolutionEntity, {
         where: { sheetId: sheet.id, rowIndex, channelId },
