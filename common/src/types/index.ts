@@ -9,3 +9,4 @@ export * from './reading';
 export * from './channel';
 export * from './sheet';
 export * from './analysis';
+export * from './analysis-records';
