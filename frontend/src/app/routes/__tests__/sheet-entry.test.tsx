@@ -279,7 +279,8 @@ describe('sheet entry screen', () => {
     expect(marks('dialsheet:input-ready')).toEqual([{ rowIndex: 1 }]);
     await waitFor(() => expect(marks('dialsheet:frame-shown')).toEqual([{ rowIndex: 1, mediaTime: 3, expectedPts: 3, wrongFramesSeen: 0 }]));
     await waitFor(() => expect(screen.getByTestId('entry-queue-status')).toHaveTextContent('All rows saved'));
-    expect(screen.getByTestId('entry-row-0')).toHaveAttribute('data-state', 'saved');
+    // The row list follows in a deferred render.
+    await waitFor(() => expect(screen.getByTestId('entry-row-0')).toHaveAttribute('data-state', 'saved'));
     expect(network.unhandled).toEqual([]);
   });
 

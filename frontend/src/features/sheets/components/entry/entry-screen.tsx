@@ -1,4 +1,5 @@
 import { useCallback, useDeferredValue, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { flushSync } from 'react-dom';
 import { Button, Col, Row, Skeleton, Typography, type InputRef } from 'antd';
 import { CheckOutlined } from '@ant-design/icons';
 import {
@@ -98,6 +99,17 @@ function openShortcutSheet(): void {
 
 const NO_ROWS: readonly number[] = [];
 
+/**
+ * Runs `work` once the browser has painted its next frame. A step swaps the video first and
+ * renders the rest of the screen after that paint: rendering the row's inputs, their checks and
+ * the save queue's state takes longer than a display frame on a slow machine, and the frame the
+ * person reads must not wait for it.
+ */
+function afterNextPaint(work: () => void): void {
+  if (typeof requestAnimationFrame === 'function') requestAnimationFrame(() => setTimeout(work, 0));
+  else setTimeout(work, 0);
+}
+
 function sameTexts(a: readonly string[], b: readonly string[]): boolean {
   return a.length === b.length && a.every((text, i) => text === b[i]);
 }
@@ -186,47 +198,78 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
 
   const frameNow = useCallback((): number | null => playerRef.current?.frameOnScreen()?.pts ?? null, []);
 
-  const stashDraft = useCallback((rowIndex: number) => {
+  /** Keeps a row's unsaved typing as a draft; true when the drafts changed (render them). */
+  const stashDraft = useCallback((rowIndex: number): boolean => {
     const current = cellsRef.current;
     if (!sameTexts(current.texts, baselineRef.current)) {
       drafts.current.set(rowIndex, { texts: current.texts.slice(), frames: current.frames.slice() });
-      setDraftRevision((n) => n + 1);
-    } else if (drafts.current.delete(rowIndex)) {
-      setDraftRevision((n) => n + 1);
+      return true;
     }
+    return drafts.current.delete(rowIndex);
   }, []);
 
+  /** Whether a render of the stepped-to row is already waiting for the next paint. */
+  const renderScheduled = useRef(false);
+  /** Work to do with that render (queue the saved row, show the drafts). */
+  const withRender = useRef<Array<() => void>>([]);
+
   const goToRow = useCallback(
-    (target: number, focusIndex = 0) => {
+    (target: number, focusIndex = 0, alongWithRender?: () => void) => {
       const next = Math.min(Math.max(target, 0), lastRow);
       const from = rowRef.current;
       if (next === from) {
+        alongWithRender?.();
         focusCell(focusIndex);
         return;
       }
-      stashDraft(from);
+      const draftsChanged = stashDraft(from);
       performance.mark('dialsheet:step-start', { detail: { rowIndex: next } });
       stepRef.current = next;
-      // The video moves first, straight from the key press; React renders the inputs meanwhile.
+      // The video moves first, straight from the key press.
       const player = playerRef.current;
       player?.show(rowFrames[next], { rowIndex: next, step: true } satisfies StepTag);
       if (next < lastRow) player?.prefetch(rowFrames[next + 1]);
       const loaded = loadCells(next);
       baselineRef.current = savedCells(next).texts;
       rowRef.current = next;
-      pendingFocus.current = Math.min(Math.max(focusIndex, 0), lastChannel);
-      setRow(next);
-      updateCells(loaded);
+      cellsRef.current = loaded;
+      // The inputs take the new row's texts and the cursor at once, without a render, so a key
+      // typed before the render lands in the new row's cell it is meant for (every handler reads
+      // rowRef and cellsRef, which already hold the new row).
+      const focusAt = Math.min(Math.max(focusIndex, 0), lastChannel);
+      inputRefs.current.forEach((ref, i) => {
+        if (ref?.input) ref.input.value = loaded.texts[i] ?? '';
+      });
+      focusCell(focusAt);
+      pendingFocus.current = null;
+      if (alongWithRender) withRender.current.push(alongWithRender);
+      if (draftsChanged) withRender.current.push(() => setDraftRevision((n) => n + 1));
+      if (renderScheduled.current) return;
+      renderScheduled.current = true;
+      // The rest of the screen renders after the frame is painted, in one synchronous render
+      // (not a transition: a key typed meanwhile must meet a finished screen).
+      afterNextPaint(() => {
+        renderScheduled.current = false;
+        const work = withRender.current;
+        withRender.current = [];
+        flushSync(() => {
+          for (const run of work) run();
+          setRow(rowRef.current);
+          setCells(cellsRef.current);
+        });
+      });
     },
-    [focusCell, lastChannel, lastRow, loadCells, rowFrames, savedCells, stashDraft, updateCells],
+    [focusCell, lastChannel, lastRow, loadCells, rowFrames, savedCells, stashDraft],
   );
 
-  // Focus lands in the new row's input once it is on the page; that is when typing can go on.
+  // Focus lands in the first input once it is on the page (a step moves it itself, at once).
+  // A step counts as ready for typing once its row is rendered with the inputs' checks.
   useLayoutEffect(() => {
     const index = pendingFocus.current;
-    if (index === null) return;
-    pendingFocus.current = null;
-    focusCell(index);
+    if (index !== null) {
+      pendingFocus.current = null;
+      focusCell(index);
+    }
     if (stepRef.current === row) {
       stepRef.current = null;
       performance.mark('dialsheet:input-ready', { detail: { rowIndex: row } });
@@ -291,25 +334,34 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
       if (current.frames[index] !== null && !changed) return;
       const frames = current.frames.slice();
       frames[index] = frameNow() ?? current.frames[index];
-      updateCells({ texts: current.texts, frames });
+      // Frames are not shown: the next render (or the save) takes them from cellsRef.
+      cellsRef.current = { texts: current.texts, frames };
     },
-    [frameNow, updateCells],
+    [frameNow],
   );
 
-  const saveRow = useCallback((): boolean => {
+  /**
+   * Checks the row and takes it as saved; returns what queues it (run it now, or with the render
+   * of the next row so the queue's own re-render waits for the frame), or null when a cell is
+   * not a reading (the cursor goes there).
+   */
+  const saveRow = useCallback((): (() => void) | null => {
     const rowIndex = rowRef.current;
     const current = cellsRef.current;
     const firstError = channels.findIndex((channel, i) => checkCell(current.texts[i], channel, decimalComma).error !== null);
     if (firstError >= 0) {
       focusCell(firstError);
-      return false;
+      return null;
     }
     const body = rowBody(channelIds, current, stored.get(rowIndex), frameNow());
     // Returning through a saved row without changing it sends nothing.
-    if (queue.getSnapshot().rows.has(rowIndex) || !sameAsStored(body, stored.get(rowIndex))) queue.enqueue(rowIndex, body);
-    if (drafts.current.delete(rowIndex)) setDraftRevision((n) => n + 1);
+    const send = queue.getSnapshot().rows.has(rowIndex) || !sameAsStored(body, stored.get(rowIndex));
+    const hadDraft = drafts.current.delete(rowIndex);
     baselineRef.current = current.texts.slice();
-    return true;
+    return () => {
+      if (send) queue.enqueue(rowIndex, body);
+      if (hadDraft) setDraftRevision((n) => n + 1);
+    };
   }, [channelIds, channels, decimalComma, focusCell, frameNow, queue, stored]);
 
   const forward = useCallback(
@@ -323,11 +375,18 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
         focusCell(index + 1);
         return;
       }
-      if (!saveRow()) return;
-      if (rowRef.current < lastRow) goToRow(rowRef.current + 1, 0);
-      else setFinishOpen(true);
+      const queueRow = saveRow();
+      if (!queueRow) return;
+      if (rowRef.current < lastRow) {
+        goToRow(rowRef.current + 1, 0, queueRow);
+      } else {
+        queueRow();
+        // The last row stays on screen: render it as saved (its inputs are no longer "typed").
+        updateCells({ texts: cellsRef.current.texts, frames: cellsRef.current.frames });
+        setFinishOpen(true);
+      }
     },
-    [channels, commitFrame, decimalComma, focusCell, goToRow, lastChannel, lastRow, saveRow],
+    [channels, commitFrame, decimalComma, focusCell, goToRow, lastChannel, lastRow, saveRow, updateCells],
   );
 
   const back = useCallback(
