@@ -10,3 +10,4 @@ export * from './channel';
 export * from './sheet';
 export * from './analysis';
 export * from './analysis-records';
+export * from './release';
