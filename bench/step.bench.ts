@@ -18,7 +18,8 @@
 // the truth values of each row, Enter after each channel; Enter on the last saves the row and
 // steps. The screen's own
 // performance marks give, per step, Enter (dialsheet:step-start) → correct frame confirmed
-// (dialsheet:frame-shown) and → next input ready (dialsheet:input-ready). Without the entry
+// (dialsheet:frame-shown) and → the next row fully rendered (dialsheet:input-ready; the cursor and
+// the inputs' texts move at Enter itself, so keys typed before that land in the right cell). Without the entry
 // screen (or its marks) part B is skipped with a message saying what is missing, and the
 // headline falls back to part A's double buffer, labelled as such.
 //
@@ -321,7 +322,7 @@ runBenchmark('step', 8 * 60_000, async (scratch) => {
       `wrong frames seen ${entry.wrongFrames}, steps confirmed on another frame than the row's ${entry.wrongTargets}`,
   );
   console.log(
-    `part B, Enter → next input ready: median ${median(entry.readyMs).toFixed(1)} ms, p95 ${percentile(entry.readyMs, 95).toFixed(1)} ms; ` +
+    `part B, Enter → next row rendered (the cursor moves at Enter): median ${median(entry.readyMs).toFixed(1)} ms, p95 ${percentile(entry.readyMs, 95).toFixed(1)} ms; ` +
       `rows saved on the server: ${entry.saved} of ${STEPS} typed`,
   );
   console.log(`p95 ${p95.toFixed(1)} ms (target ≤ ${P95_TARGET_MS}); ratio to the camera file's plain-seek p95 (${cameraP95.toFixed(1)} ms): ${(p95 / cameraP95).toFixed(3)}`);
