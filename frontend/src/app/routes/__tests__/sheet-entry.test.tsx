@@ -12,6 +12,7 @@ import {
 import { act, findDialog, renderApp, screen, waitFor, within } from '@/testing/test-utils';
 import { makeCampaign, makeRecording, makeRun, makeUser } from '@/testing/fixtures';
 import type { StubRequest } from '@/testing/fetch-stub';
+import userEvent from '@testing-library/user-event';
 
 const campaignId = '10000000-0000-4000-8000-000000000001';
 const runId = '30000000-0000-4000-8000-0000000000e1';
@@ -329,6 +330,26 @@ describe('sheet entry screen', () => {
     await user.keyboard('{Enter}{Enter}');
     await waitFor(() => expect(saves(network)).toHaveLength(1));
     expect((saves(network)[0].body as SaveRowRequest).readings.map((r) => r.rawText)).toEqual(['75.0', '1.1']);
+  });
+
+  it('puts keys typed right after Enter into the next row’s first cell, and still saves the row left', async () => {
+    const { network } = await openEntry();
+    // No pause between keys: the next row's keys arrive before the saved row is even queued
+    // (that waits for the new frame to be painted).
+    const fast = userEvent.setup({ delay: null });
+    await fast.keyboard('19.9{Enter}0.5{Enter}20.3');
+    expect(saves(network)).toHaveLength(0);
+    expect(input('T1')).toHaveFocus();
+    await waitFor(() => expect(rowTitle()).toHaveTextContent('Row 2 of 4'));
+    expect(input('T1')).toHaveValue('20.3');
+    expect(input('FM')).toHaveValue('');
+    await waitFor(() => expect(saves(network)).toHaveLength(1));
+    expect((saves(network)[0].body as SaveRowRequest).readings.map((r) => r.rawText)).toEqual(['19.9', '0.5']);
+    expect(saves(network)[0].params.rowIndex).toBe('0');
+    // And the typed text belongs to row 2: Enter there goes on to FM of row 2.
+    await fast.keyboard('{Enter}');
+    expect(input('FM')).toHaveFocus();
+    expect(rowTitle()).toHaveTextContent('Row 2 of 4');
   });
 
   it('goes back with Shift+Enter: to the previous channel, then to the previous row’s last channel', async () => {

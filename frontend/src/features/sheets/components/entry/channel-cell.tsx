@@ -1,4 +1,4 @@
-import { memo, type KeyboardEvent, type Ref } from 'react';
+import { memo, useCallback, type KeyboardEvent, type Ref } from 'react';
 import { Input, Tag, Typography, type InputRef } from 'antd';
 import type { Channel, DisplayRegion } from '@dialsheet/common';
 import type { CellCheck } from './entry-rows';
@@ -40,6 +40,9 @@ export const ChannelCell = memo(function ChannelCell({
   onTextChange,
   onKeyDown,
 }: ChannelCellProps) {
+  // A stable ref: an inline one is called again on every render, and each call redraws the crop
+  // from the video (milliseconds per call without a GPU) on every key typed and every step.
+  const attachCanvas = useCallback((canvas: HTMLCanvasElement | null) => canvasRef(index, canvas), [canvasRef, index]);
   const inputId = `entry-cell-${channel.id}`;
   const messageId = `${inputId}-message`;
   const flag = check.parsed.kind === 'flag' ? check.parsed.flag : null;
@@ -47,7 +50,7 @@ export const ChannelCell = memo(function ChannelCell({
     <div className={`entry-cell${check.error ? ' has-error' : ''}`} data-testid={`entry-cell-${channel.symbol}`}>
       <div className="entry-crop" aria-hidden="true">
         {region ? (
-          <canvas ref={(canvas) => canvasRef(index, canvas)} className="entry-crop-canvas" data-testid={`crop-${channel.symbol}`} />
+          <canvas ref={attachCanvas} className="entry-crop-canvas" data-testid={`crop-${channel.symbol}`} />
         ) : (
           <span className="entry-crop-missing">no region</span>
         )}

@@ -1,5 +1,4 @@
-import { useCallback, useDeferredValue, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import { flushSync } from 'react-dom';
+import { startTransition, useCallback, useDeferredValue, useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { Button, Col, Row, Skeleton, Typography, type InputRef } from 'antd';
 import { CheckOutlined } from '@ant-design/icons';
 import {
@@ -21,7 +20,8 @@ import { useEntryKeys } from '../../hooks/use-entry-keys';
 import { useSaveQueue } from '../../hooks/use-save-queue';
 import type { QueueSnapshot, QueueStorage, SaveQueue, SendRow } from '../../stores/save-queue';
 import { formatTime } from '../../utils/sheet-format';
-import { ChannelCell } from './channel-cell';
+import { CellsStore, typedSomething } from './cells-store';
+import { EntryCells } from './entry-cells';
 import {
   cellsForRow,
   checkCell,
@@ -31,7 +31,6 @@ import {
   rowFrameIndices,
   rowState,
   sameAsStored,
-  type CellCheck,
   type RowCells,
   type RowState,
   type StoredReadings,
@@ -100,10 +99,8 @@ function openShortcutSheet(): void {
 const NO_ROWS: readonly number[] = [];
 
 /**
- * Runs `work` once the browser has painted its next frame. A step swaps the video first and
- * renders the rest of the screen after that paint: rendering the row's inputs, their checks and
- * the save queue's state takes longer than a display frame on a slow machine, and the frame the
- * person reads must not wait for it.
+ * Runs `work` once the browser has painted its next frame: work a step can put off (queueing the
+ * saved row, whose state re-renders much of the screen) must not hold up the new frame.
  */
 function afterNextPaint(work: () => void): void {
   if (typeof requestAnimationFrame === 'function') requestAnimationFrame(() => setTimeout(work, 0));
@@ -158,12 +155,18 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
   );
   const loadCells = useCallback((rowIndex: number): RowCells => drafts.current.get(rowIndex) ?? savedCells(rowIndex), [savedCells]);
 
+  /** The row the screen around the inputs shows; it follows a step once the frame is painted. */
   const [row, setRow] = useState(() => resumeRow(rows.length, channelIds, stored, queue.getSnapshot().rows));
-  const [cells, setCells] = useState<RowCells>(() => loadCells(row));
+  /** The row and cells the inputs hold: handlers read these, never the rendered state. */
   const rowRef = useRef(row);
-  const cellsRef = useRef(cells);
+  const cellsRef = useRef<RowCells>(null as unknown as RowCells);
   /** The row's saved (or queued) texts: anything else in the inputs is typed and not yet saved. */
-  const baselineRef = useRef<string[]>(savedCells(row).texts);
+  const baselineRef = useRef<string[]>(null as unknown as string[]);
+  const [cellsStore] = useState(() => {
+    cellsRef.current = loadCells(row);
+    baselineRef.current = savedCells(row).texts;
+    return new CellsStore({ row, cells: cellsRef.current, baseline: baselineRef.current.slice() });
+  });
   const pendingFocus = useRef<number | null>(0);
   /** The row a person stepped to, until its input is ready (for the benchmark marks). */
   const stepRef = useRef<number | null>(null);
@@ -172,24 +175,27 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
   /** The input to return to once a dialog has closed. */
   const afterDialogFocus = useRef(0);
 
-  // One check per cell, kept while its text is unchanged, so a key typed re-renders one cell only.
-  const checkCache = useRef(new Map<string, CellCheck>());
-  const checks = useMemo(() => {
-    const cache = checkCache.current;
-    if (cache.size > 4 * channels.length + 64) cache.clear();
-    return channels.map((channel, i) => {
-      const text = cells.texts[i] ?? '';
-      const key = `${channel.id}\u0000${decimalComma ? ',' : '.'}\u0000${text}`;
-      let check = cache.get(key);
-      if (!check) cache.set(key, (check = checkCell(text, channel, decimalComma)));
-      return check;
-    });
-  }, [cells.texts, channels, decimalComma]);
-
-  const updateCells = useCallback((next: RowCells) => {
-    cellsRef.current = next;
-    setCells(next);
-  }, []);
+  /** Shows the inputs what rowRef, cellsRef and baselineRef now hold (re-rendering them alone). */
+  const publishCells = useCallback(() => {
+    cellsStore.set({ row: rowRef.current, cells: cellsRef.current, baseline: baselineRef.current.slice() });
+  }, [cellsStore]);
+  const updateCells = useCallback(
+    (next: RowCells) => {
+      cellsRef.current = next;
+      publishCells();
+    },
+    [publishCells],
+  );
+  // Whether the current row holds typing not yet saved marks it in the row list, which can wait.
+  const [typing, setTyping] = useState(() => typedSomething(cellsStore.get()));
+  useEffect(
+    () =>
+      cellsStore.subscribe(() => {
+        const now = typedSomething(cellsStore.get());
+        startTransition(() => setTyping(now));
+      }),
+    [cellsStore],
+  );
 
   const focusCell = useCallback((index: number) => {
     const input = inputRefs.current[index];
@@ -208,73 +214,39 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
     return drafts.current.delete(rowIndex);
   }, []);
 
-  /** Whether a render of the stepped-to row is already waiting for the next paint. */
-  const renderScheduled = useRef(false);
-  /** Work to do with that render (queue the saved row, show the drafts). */
-  const withRender = useRef<Array<() => void>>([]);
-
   const goToRow = useCallback(
-    (target: number, focusIndex = 0, alongWithRender?: () => void) => {
+    (target: number, focusIndex = 0, afterPaint?: () => void) => {
       const next = Math.min(Math.max(target, 0), lastRow);
       const from = rowRef.current;
       if (next === from) {
-        alongWithRender?.();
+        afterPaint?.();
         focusCell(focusIndex);
         return;
       }
-      const draftsChanged = stashDraft(from);
+      if (stashDraft(from)) setDraftRevision((n) => n + 1);
       performance.mark('dialsheet:step-start', { detail: { rowIndex: next } });
       stepRef.current = next;
-      // The video moves first, straight from the key press.
+      // The video moves first, straight from the key press; React renders the row's inputs
+      // meanwhile (they must be right before the next key: a key typed into an input that is
+      // about to change would be lost).
       const player = playerRef.current;
       player?.show(rowFrames[next], { rowIndex: next, step: true } satisfies StepTag);
       if (next < lastRow) player?.prefetch(rowFrames[next + 1]);
       const loaded = loadCells(next);
       baselineRef.current = savedCells(next).texts;
       rowRef.current = next;
-      cellsRef.current = loaded;
-      // The inputs take the new row's texts and the cursor at once, without a render, so a key
-      // typed before the render lands in the new row's cell it is meant for (every handler reads
-      // rowRef and cellsRef, which already hold the new row).
-      const focusAt = Math.min(Math.max(focusIndex, 0), lastChannel);
-      inputRefs.current.forEach((ref, i) => {
-        if (ref?.input) ref.input.value = loaded.texts[i] ?? '';
-      });
-      focusCell(focusAt);
-      pendingFocus.current = null;
-      if (alongWithRender) withRender.current.push(alongWithRender);
-      if (draftsChanged) withRender.current.push(() => setDraftRevision((n) => n + 1));
-      if (renderScheduled.current) return;
-      renderScheduled.current = true;
-      // The rest of the screen renders after the frame is painted, in one synchronous render
-      // (not a transition: a key typed meanwhile must meet a finished screen).
+      pendingFocus.current = Math.min(Math.max(focusIndex, 0), lastChannel);
+      // The inputs change now (before another key can arrive; the cursor follows as soon as they
+      // are on the page); the rest of the screen, and queueing the saved row (whose state
+      // re-renders much of it), after the new frame is painted.
+      updateCells(loaded);
       afterNextPaint(() => {
-        renderScheduled.current = false;
-        const work = withRender.current;
-        withRender.current = [];
-        flushSync(() => {
-          for (const run of work) run();
-          setRow(rowRef.current);
-          setCells(cellsRef.current);
-        });
+        afterPaint?.();
+        setRow(rowRef.current);
       });
     },
-    [focusCell, lastChannel, lastRow, loadCells, rowFrames, savedCells, stashDraft],
+    [focusCell, lastChannel, lastRow, loadCells, rowFrames, savedCells, stashDraft, updateCells],
   );
-
-  // Focus lands in the first input once it is on the page (a step moves it itself, at once).
-  // A step counts as ready for typing once its row is rendered with the inputs' checks.
-  useLayoutEffect(() => {
-    const index = pendingFocus.current;
-    if (index !== null) {
-      pendingFocus.current = null;
-      focusCell(index);
-    }
-    if (stepRef.current === row) {
-      stepRef.current = null;
-      performance.mark('dialsheet:input-ready', { detail: { rowIndex: row } });
-    }
-  }, [focusCell, row]);
 
   // The first frame, and the next row's frame into the hidden element. Steps after this are
   // started from key handlers.
@@ -358,11 +330,12 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
     const send = queue.getSnapshot().rows.has(rowIndex) || !sameAsStored(body, stored.get(rowIndex));
     const hadDraft = drafts.current.delete(rowIndex);
     baselineRef.current = current.texts.slice();
+    publishCells();
     return () => {
       if (send) queue.enqueue(rowIndex, body);
       if (hadDraft) setDraftRevision((n) => n + 1);
     };
-  }, [channelIds, channels, decimalComma, focusCell, frameNow, queue, stored]);
+  }, [channelIds, channels, decimalComma, focusCell, frameNow, publishCells, queue, stored]);
 
   const forward = useCallback(
     (index: number) => {
@@ -381,12 +354,10 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
         goToRow(rowRef.current + 1, 0, queueRow);
       } else {
         queueRow();
-        // The last row stays on screen: render it as saved (its inputs are no longer "typed").
-        updateCells({ texts: cellsRef.current.texts, frames: cellsRef.current.frames });
         setFinishOpen(true);
       }
     },
-    [channels, commitFrame, decimalComma, focusCell, goToRow, lastChannel, lastRow, saveRow, updateCells],
+    [channels, commitFrame, decimalComma, focusCell, goToRow, lastChannel, lastRow, saveRow],
   );
 
   const back = useCallback(
@@ -472,7 +443,6 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
     void draftRevision;
     return rows.map((r) => rowState(channelIds, stored.get(r.index), snapshot.rows.get(r.index), drafts.current.has(r.index)));
   }, [channelIds, draftRevision, revision, rows, snapshot, stored]);
-  const typing = !sameTexts(cells.texts, baselineRef.current);
   const shownStates = useMemo(() => {
     if (!typing || snapshot.rows.has(row)) return states;
     const copy = states.slice();
@@ -607,23 +577,19 @@ function EntryWorkspace({ sheet, pass, rows, channels, regions, decimalComma, vi
               </Typography.Text>
             </div>
             <RowProblem queued={queuedHere} channels={channels} onResend={() => queue.resend(row)} onKeepMine={keepMine} onTakeStored={takeStored} />
-            <div className="entry-cells">
-              {channels.map((channel, i) => (
-                <ChannelCell
-                  key={channel.id}
-                  channel={channel}
-                  index={i}
-                  text={cells.texts[i] ?? ''}
-                  check={checks[i]}
-                  region={regionByChannel.get(channel.id)}
-                  changed={(cells.texts[i] ?? '') !== baselineRef.current[i]}
-                  inputRef={setInputRef[i]}
-                  canvasRef={setCanvas}
-                  onTextChange={setText}
-                  onKeyDown={onCellKeyDown}
-                />
-              ))}
-            </div>
+            <EntryCells
+              store={cellsStore}
+              channels={channels}
+              regionByChannel={regionByChannel}
+              decimalComma={decimalComma}
+              inputRefs={setInputRef}
+              canvasRef={setCanvas}
+              onTextChange={setText}
+              onKeyDown={onCellKeyDown}
+              focusCell={focusCell}
+              pendingFocus={pendingFocus}
+              stepRef={stepRef}
+            />
             <Typography.Paragraph type="secondary" className="entry-keys-hint">
               <kbd>Enter</kbd> next · <kbd>Shift</kbd>+<kbd>Enter</kbd> back · <kbd>Alt</kbd>+<kbd>←</kbd>/<kbd>→</kbd> frame · <kbd>Ctrl</kbd>+<kbd>U</kbd>{' '}
               unreadable · <kbd>Ctrl</kbd>+<kbd>M</kbd> ambiguous · <kbd>?</kbd> all keys
