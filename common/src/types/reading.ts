@@ -196,3 +196,50 @@ export interface SheetMismatches {
   byChannel: ChannelMismatchRate[];
   byPerson: PersonMismatchRate[];
 }
+
+/**
+ * The entries of one pass for the sheet table, column-wise: element `i` of every array is the cell
+ * of row `floor(i / channelIds.length)` and channel `channelIds[i % channelIds.length]`. Column-wise
+ * arrays instead of one `Reading` per cell keep a 10 000-row sheet's answer small and quick to read.
+ */
+export interface SheetGridPass {
+  /**
+   * Exactly as typed; null when the cell has no entry in this pass. (The parsed number is left out:
+   * the table shows the text and compares passes by it, parsing only texts that differ.)
+   */
+  rawText: (string | null)[];
+  flag: (ReadingFlag | null)[];
+  /**
+   * What a change of a cell sends back (the version it replaces, the frame read), only when the
+   * viewer may change this pass: its owner, until they finish it. Null otherwise.
+   */
+  edit: SheetGridEdit | null;
+  /** Only the cells whose value falls outside a limit, by cell index as above. */
+  warnings: Record<number, LimitWarning[]>;
+}
+
+/** Per cell, in the order of `SheetGridPass`; null where there is no entry. */
+export interface SheetGridEdit {
+  version: (number | null)[];
+  /** Presentation time (seconds of video) of the frame read; null when not sent. */
+  frameTime: (number | null)[];
+}
+
+/**
+ * What the sheet table shows, in one answer: row times, channel order, the passes the viewer may
+ * see and the resolutions when they may read the mismatch list. The same blind rules as the
+ * readings and mismatch routes decide what is null here.
+ */
+export interface SheetGrid {
+  sheetId: string;
+  /** Test time of each row, seconds; the row index is the position. */
+  testTimes: number[];
+  /** The sheet's channels in entry order: the columns of the table. */
+  channelIds: string[];
+  /** Null when the viewer may not see pass 1 (the checker until pass 2 is finished). */
+  pass1: SheetGridPass | null;
+  /** Null when the viewer may not see pass 2 (the reader until the checker finishes it). */
+  pass2: SheetGridPass | null;
+  /** Every resolution of the sheet's cells; null when the viewer may not read the mismatch list. */
+  resolutions: Resolution[] | null;
+}

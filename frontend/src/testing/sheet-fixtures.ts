@@ -1,4 +1,4 @@
-import type { Channel, MismatchCell, Reading, ReadingPass, Resolution, Sheet, SheetMismatches, SheetRow } from '@dialsheet/common';
+import type { Channel, MismatchCell, Reading, ReadingPass, Resolution, Sheet, SheetGrid, SheetGridPass, SheetMismatches, SheetRow } from '@dialsheet/common';
 
 // Wire-shaped sheets, readings and mismatches for component tests of the sheet pages.
 const at = '2026-03-02T09:15:00.000Z';
@@ -118,5 +118,59 @@ export function makeMismatches(cells: MismatchCell[], overrides: Partial<SheetMi
     byChannel: [],
     byPerson: [],
     ...overrides,
+  };
+}
+
+/**
+ * The sheet table's answer (`GET /sheets/:id/grid`) laid out from readings, as the server lays it
+ * out: cell i is row floor(i / channels) and channel i % channels; readings off the plan are left out.
+ */
+export function makeSheetGrid({
+  rows,
+  channelIds,
+  pass1,
+  pass2,
+  resolutions = null,
+  editPass = null,
+}: {
+  rows: SheetRow[];
+  channelIds: string[];
+  pass1: Reading[] | null;
+  pass2: Reading[] | null;
+  resolutions?: Resolution[] | null;
+  /** The pass the viewer may change: it alone carries versions and frames. */
+  editPass?: ReadingPass | null;
+}): SheetGrid {
+  const width = channelIds.length;
+  const layout = (readings: Reading[] | null, editable: boolean): SheetGridPass | null => {
+    if (!readings) return null;
+    const size = rows.length * width;
+    const out: SheetGridPass = {
+      rawText: new Array<string | null>(size).fill(null),
+      flag: new Array<Reading['flag']>(size).fill(null),
+      edit: editable ? { version: new Array<number | null>(size).fill(null), frameTime: new Array<number | null>(size).fill(null) } : null,
+      warnings: {},
+    };
+    for (const r of readings) {
+      const col = channelIds.indexOf(r.channelId);
+      if (col < 0 || r.rowIndex < 0 || r.rowIndex >= rows.length) continue;
+      const i = r.rowIndex * width + col;
+      out.rawText[i] = r.rawText;
+      out.flag[i] = r.flag;
+      if (out.edit) {
+        out.edit.version[i] = r.version;
+        out.edit.frameTime[i] = r.frameTime;
+      }
+      if (r.warnings.length > 0) out.warnings[i] = r.warnings;
+    }
+    return out;
+  };
+  return {
+    sheetId: SHEET_ID,
+    testTimes: rows.map((r) => r.testTime),
+    channelIds,
+    pass1: layout(pass1, editPass === 1),
+    pass2: layout(pass2, editPass === 2),
+    resolutions,
   };
 }

@@ -1,4 +1,4 @@
-import type { PassFinish, Reading, ReadingPass, Resolution, SaveRowResponse, SheetMismatches } from '@dialsheet/common';
+import type { PassFinish, Reading, ReadingPass, Resolution, SaveRowResponse, SheetGrid, SheetMismatches } from '@dialsheet/common';
 import { BadRequestException, Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiConflictResponse, ApiOperation, ApiQuery, ApiTags } from '@nestjs/swagger';
 import type { AuthUser } from '../../core/auth-user';
@@ -6,6 +6,7 @@ import { CurrentUser } from '../../core/decorators/current-user.decorator';
 import { ResolveCellDto } from './dto/resolve-cell.dto';
 import { SaveRowDto } from './dto/save-row.dto';
 import { ReadingsService } from './readings.service';
+import { SheetGridService } from './sheet-grid.service';
 
 function passOf(value: unknown, field: string): ReadingPass {
   if (value === '1' || value === 1) return 1;
@@ -22,7 +23,10 @@ function rowOf(value: string): number {
 @ApiBearerAuth()
 @Controller('sheets/:sheetId')
 export class ReadingsController {
-  constructor(private readonly readings: ReadingsService) {}
+  constructor(
+    private readonly readings: ReadingsService,
+    private readonly sheetGrid: SheetGridService,
+  ) {}
 
   @Put('rows/:rowIndex')
   @ApiOperation({
@@ -45,6 +49,16 @@ export class ReadingsController {
   @ApiOperation({ summary: 'Entries of one pass (its owner, Lead, Engineers; the checker sees pass 1 only after finishing pass 2)' })
   list(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string, @Query('pass') pass: string): Promise<Reading[]> {
     return this.readings.list(user, sheetId, passOf(pass, 'pass'));
+  }
+
+  @Get('grid')
+  @ApiOperation({
+    summary: 'The sheet table in one answer: row times, channels, the passes the viewer may see as column-wise arrays, and resolutions',
+    description:
+      'Same rules as the readings and mismatch routes: a pass or the resolutions the viewer may not see are null (the checker sees pass 1 only after finishing pass 2); 403 when neither pass may be seen.',
+  })
+  grid(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string): Promise<SheetGrid> {
+    return this.sheetGrid.grid(user, sheetId);
   }
 
   @Post('passes/:pass/finish')

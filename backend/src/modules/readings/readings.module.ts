@@ -5,10 +5,11 @@ import { CampaignAccessModule } from '../campaigns/campaign-access.module';
 import { ReadingEntity } from './reading.entity';
 import { ReadingsController } from './readings.controller';
 import { ReadingsService } from './readings.service';
+import { SheetGridService } from './sheet-grid.service';
 
 @Module({
   imports: [TypeOrmModule.forFeature([ReadingEntity]), CampaignAccessModule, AuditModule],
   controllers: [ReadingsController],
-  providers: [ReadingsService],
+  providers: [ReadingsService, SheetGridService],
 })
 export class ReadingsModule {}

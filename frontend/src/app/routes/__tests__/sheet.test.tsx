@@ -17,6 +17,7 @@ import {
   makeRows,
   makeSheet,
   makeSheetChannel,
+  makeSheetGrid,
   passReadings,
 } from '@/testing/sheet-fixtures';
 
@@ -58,6 +59,22 @@ function renderSheetPage({ userId, roles, sheet, pass1 = [], pass2 = [], mismatc
       'GET /api/runs/:runId': { body: run },
       'GET /api/sheets/:sheetId': { body: sheet },
       'GET /api/sheets/:sheetId/rows': { body: makeRows(sheet.rowCount) },
+      // The table's one answer, with the same blind rules: hidden passes and resolutions are null.
+      'GET /api/sheets/:sheetId/grid': () => {
+        if (hidden(1) && hidden(2)) return apiError(403, 'The sheet’s entries are shown to its reader and checker, the Lead and Engineers only');
+        return {
+          body: makeSheetGrid({
+            rows: makeRows(sheet.rowCount),
+            channelIds: sheet.channelIds,
+            pass1: hidden(1) ? null : pass1,
+            pass2: hidden(2) ? null : pass2,
+            resolutions: mismatches ? mismatches.cells.flatMap((c) => (c.resolution ? [c.resolution] : [])) : null,
+            // Versions and frames come only with the pass the viewer may still change.
+            editPass:
+              userId === sheet.readerId && !sheet.pass1FinishedAt ? 1 : userId === sheet.checkerId && !sheet.pass2FinishedAt ? 2 : null,
+          }),
+        };
+      },
       'GET /api/sheets/:sheetId/readings': ({ query }: StubRequest) => {
         const pass = Number(query.get('pass')) as ReadingPass;
         if (hidden(pass)) return apiError(403, pass === 1 ? 'Pass 1 is hidden until you finish pass 2' : 'Pass 2 is hidden until the checker finishes it');
@@ -111,8 +128,9 @@ describe('sheet page', () => {
     expect(screen.queryByRole('tab', { name: 'Mismatches' })).not.toBeInTheDocument();
     expect(screen.getByRole('group', { name: 'Pass 1: 6 of 6 cells entered, finished' })).toBeInTheDocument();
 
-    const readings = network.callsTo('GET /api/sheets/:sheetId/readings');
-    expect(readings.map((c) => c.query.get('pass'))).toEqual(['2']);
+    // One compact answer for the table; pass 1 is never asked for on its own.
+    expect(network.callsTo('GET /api/sheets/:sheetId/grid')).toHaveLength(1);
+    expect(network.callsTo('GET /api/sheets/:sheetId/readings')).toHaveLength(0);
     expect(network.callsTo('GET /api/sheets/:sheetId/mismatches')).toHaveLength(0);
     expect(network.unhandled).toEqual([]);
   });
@@ -131,6 +149,7 @@ describe('sheet page', () => {
     });
     await screen.findByRole('gridcell', { name: /T1 row 1,/ });
     expect(screen.getByText('10 000 rows')).toBeInTheDocument();
+    expect(screen.getByRole('gridcell', { name: /T1 row 1,/ })).toHaveAccessibleName('T1 row 1, pass 1 20.0, pass 2 20.0, passes agree');
     const drawn = gridRows();
     expect(drawn.length).toBeGreaterThan(5);
     expect(drawn.length).toBeLessThan(60);
@@ -211,7 +230,9 @@ describe('sheet page', () => {
     await waitFor(() => expect(screen.getByRole('gridcell', { name: /T1 row 2,/ })).toHaveAccessibleName('T1 row 2, pass 1 20.9, entered'));
     // Saved: the cursor goes on to the next row, ready for the next change.
     expect(screen.getByRole('grid')).toHaveAttribute('aria-activedescendant', 'sheet-cell-2-0');
-    expect(network.callsTo('GET /api/sheets/:sheetId/readings').map((c) => c.query.get('pass'))).toEqual(['1']);
+    // The saved reading went into the table's data in place: the sheet was not fetched again.
+    expect(network.callsTo('GET /api/sheets/:sheetId/grid')).toHaveLength(1);
+    expect(network.callsTo('GET /api/sheets/:sheetId/readings')).toHaveLength(0);
   });
 
   it('offers to reload a cell that changed meanwhile, instead of overwriting it', async () => {

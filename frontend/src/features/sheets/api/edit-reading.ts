@@ -1,8 +1,10 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Reading, ReadingPass, SaveRowRequest, SaveRowResponse } from '@dialsheet/common';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import type { Reading, ReadingPass, SaveRowRequest, SaveRowResponse, SheetGrid } from '@dialsheet/common';
 import { api, isApiError } from '@/lib/api-client';
 import type { MutationConfig } from '@/lib/query-client';
+import { withReading } from '../utils/sheet-grid';
 import { getReadingsQueryOptions } from './get-readings';
+import { sheetGridKey } from './get-sheet-grid';
 
 // One cell changed by the owner of its pass in the sheet table. It goes through the same row save
 // as entry, with the version it replaces: a cell changed meanwhile (another tab, the entry screen)
@@ -14,8 +16,8 @@ export interface EditReadingInput {
   pass: ReadingPass;
   channelId: string;
   rawText: string;
-  /** The stored entry being replaced; null for a cell that has none yet. */
-  existing: Reading | null;
+  /** The stored entry being replaced (its version and frame); null for a cell that has none yet. */
+  existing: { version: number | null; frameTime: number | null } | null;
 }
 
 export const editReading = async ({ sheetId, rowIndex, pass, channelId, rawText, existing }: EditReadingInput): Promise<Reading> => {
@@ -54,6 +56,12 @@ function replaceReading(list: Reading[] | undefined, next: Reading): Reading[] |
   return copy;
 }
 
+/** Puts a stored reading into every cached copy of its sheet (the table's grid and the pass's list). */
+function putReading(queryClient: QueryClient, sheetId: string, reading: Reading): void {
+  queryClient.setQueryData(getReadingsQueryOptions(sheetId, reading.pass).queryKey, (list) => replaceReading(list, reading));
+  queryClient.setQueriesData<SheetGrid>({ queryKey: sheetGridKey(sheetId) }, (grid) => (grid ? withReading(grid, reading) : grid));
+}
+
 export function useEditReading({ mutationConfig }: { mutationConfig?: MutationConfig<typeof editReading> } = {}) {
   const queryClient = useQueryClient();
   const { onSuccess, ...rest } = mutationConfig ?? {};
@@ -61,8 +69,8 @@ export function useEditReading({ mutationConfig }: { mutationConfig?: MutationCo
     ...rest,
     mutationFn: editReading,
     onSuccess: (...args) => {
-      const [saved, { sheetId, pass }] = args;
-      queryClient.setQueryData(getReadingsQueryOptions(sheetId, pass).queryKey, (list) => replaceReading(list, saved));
+      const [saved, { sheetId }] = args;
+      putReading(queryClient, sheetId, saved);
       // Progress and the comparison move with the entry.
       void queryClient.invalidateQueries({ queryKey: ['sheets', 'detail', sheetId] });
       void queryClient.invalidateQueries({ queryKey: ['sheets', 'mismatches', sheetId] });
@@ -75,7 +83,10 @@ export function useEditReading({ mutationConfig }: { mutationConfig?: MutationCo
 export function useReloadReading() {
   const queryClient = useQueryClient();
   return (sheetId: string, pass: ReadingPass, current: Reading | null) => {
-    if (current) queryClient.setQueryData(getReadingsQueryOptions(sheetId, pass).queryKey, (list) => replaceReading(list, current));
-    else void queryClient.invalidateQueries({ queryKey: getReadingsQueryOptions(sheetId, pass).queryKey });
+    if (current) putReading(queryClient, sheetId, current);
+    else {
+      void queryClient.invalidateQueries({ queryKey: getReadingsQueryOptions(sheetId, pass).queryKey });
+      void queryClient.invalidateQueries({ queryKey: sheetGridKey(sheetId) });
+    }
   };
 }

@@ -1,8 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Resolution, ResolveCellRequest } from '@dialsheet/common';
+import type { Resolution, ResolveCellRequest, SheetGrid } from '@dialsheet/common';
 import { api, isApiError } from '@/lib/api-client';
 import type { MutationConfig } from '@/lib/query-client';
+import { withResolution } from '../utils/sheet-grid';
 import { getMismatchesQueryOptions } from './get-mismatches';
+import { sheetGridKey } from './get-sheet-grid';
 
 export interface ResolveCellInput {
   sheetId: string;
@@ -29,8 +31,10 @@ export function useResolveCell({ mutationConfig }: { mutationConfig?: MutationCo
     ...rest,
     mutationFn: resolveCell,
     onSuccess: (...args) => {
-      const [, { sheetId }] = args;
+      const [saved, { sheetId }] = args;
       void queryClient.invalidateQueries({ queryKey: getMismatchesQueryOptions(sheetId).queryKey });
+      // The table shows the resolved value in the cell at once, without reloading the sheet.
+      queryClient.setQueriesData<SheetGrid>({ queryKey: sheetGridKey(sheetId) }, (grid) => (grid ? withResolution(grid, saved) : grid));
       return onSuccess?.(...args);
     },
   });

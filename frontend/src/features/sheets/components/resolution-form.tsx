@@ -4,6 +4,7 @@ import { Alert, Button, Form, Input, Typography, type InputRef } from 'antd';
 import { checkLimits, parseReading, type Channel, type MismatchCell, type Resolution } from '@dialsheet/common';
 import { errorMessage, isApiError } from '@/lib/api-client';
 import { getMismatchesQueryOptions } from '../api/get-mismatches';
+import { sheetGridKey } from '../api/get-sheet-grid';
 import { staleResolution, useResolveCell } from '../api/resolve-cell';
 import { FLAG_LABELS } from '../utils/sheet-format';
 import { ResolutionFacts } from './resolution-facts';
@@ -123,6 +124,8 @@ export function ResolutionForm({ sheetId, cell, channel, decimalComma, nameOf, r
     setStale(null);
     setProblems({});
     void queryClient.invalidateQueries({ queryKey: getMismatchesQueryOptions(sheetId).queryKey });
+    // The table's cell shows the resolution too.
+    void queryClient.invalidateQueries({ queryKey: sheetGridKey(sheetId) });
   };
 
   let preview: string | null = null;

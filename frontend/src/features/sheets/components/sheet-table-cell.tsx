@@ -1,6 +1,6 @@
 import { WarningOutlined } from '@ant-design/icons';
-import type { Reading, ReadingPass, Resolution } from '@dialsheet/common';
-import type { CellState } from '../utils/sheet-grid';
+import type { ReadingPass, Resolution } from '@dialsheet/common';
+import type { CellState, GridEntry } from '../utils/sheet-grid';
 import { SheetCellEditor } from './sheet-cell-editor';
 
 export interface CellEditState {
@@ -18,8 +18,8 @@ interface SheetTableCellProps {
   rowNumber: number;
   state: CellState;
   /** Undefined: the pass has no entry; null: the viewer may not see the pass. */
-  pass1: Reading | undefined | null;
-  pass2: Reading | undefined | null;
+  pass1: GridEntry | undefined | null;
+  pass2: GridEntry | undefined | null;
   resolution: Resolution | undefined;
   active: boolean;
   /** In a filtered view, the cell the filter picked (others in the row are context). */
@@ -45,7 +45,7 @@ function shown(reading: { rawText: string } | undefined): string {
   return reading.rawText.trim() === '' ? 'blank' : reading.rawText;
 }
 
-function spoken(pass: ReadingPass, reading: Reading | undefined | null): string | null {
+function spoken(pass: ReadingPass, reading: GridEntry | undefined | null): string | null {
   if (reading === null) return null;
   return `pass ${pass} ${reading ? (reading.rawText.trim() === '' ? 'blank' : reading.rawText) : 'no entry'}`;
 }
@@ -65,7 +65,7 @@ export function SheetTableCell(props: SheetTableCellProps) {
     .filter(Boolean)
     .join(', ');
 
-  const part = (pass: ReadingPass, reading: Reading | undefined | null) => {
+  const part = (pass: ReadingPass, reading: GridEntry | undefined | null) => {
     if (reading === null) return null;
     if (edit && editPass === pass) {
       return (

@@ -8,7 +8,7 @@ import { useCellEditing, type CellAt } from '../hooks/use-cell-editing';
 import { useSheetGridData } from '../hooks/use-sheet-grid-data';
 import { gridMove } from '../utils/grid-keys';
 import { mayEditPass, ownPass, type SheetViewer } from '../utils/sheet-access';
-import { cellKey, cellPicked, cellState, filterRows, readingAt, type SheetFilter } from '../utils/sheet-grid';
+import { cellKey, cellPicked, cellState, entryAt, filterRows, type SheetFilter } from '../utils/sheet-grid';
 import { formatCount } from '../utils/sheet-format';
 import { SheetGridView } from './sheet-grid-view';
 import { SheetTableCell } from './sheet-table-cell';
@@ -143,8 +143,8 @@ export function SheetTable({ sheet, channels, viewer, decimalComma, withResoluti
         symbol={channel.symbol}
         rowNumber={row.index + 1}
         state={cellState(grid, row.index, col)}
-        pass1={grid.pass1 ? readingAt(grid, 1, row.index, col) : null}
-        pass2={grid.pass2 ? readingAt(grid, 2, row.index, col) : null}
+        pass1={grid.pass1 ? entryAt(grid, 1, row.index, col) : null}
+        pass2={grid.pass2 ? entryAt(grid, 2, row.index, col) : null}
         resolution={grid.resolutions.get(cellKey(row.index, channel.id))}
         active={cursor.rowIndex === row.index && cursor.col === col}
         picked={cellPicked(grid, filter, row.index, col)}

@@ -2,7 +2,7 @@ import { useCallback, useState } from 'react';
 import { parseReading, type Reading, type ReadingPass } from '@dialsheet/common';
 import { errorMessage, isApiError } from '@/lib/api-client';
 import { staleConflict, useEditReading } from '../api/edit-reading';
-import { readingAt, type SheetGrid } from '../utils/sheet-grid';
+import { entryAt, type TableGrid } from '../utils/sheet-grid';
 
 export interface CellAt {
   rowIndex: number;
@@ -31,7 +31,7 @@ export function useCellEditing({
   onDone,
 }: {
   sheetId: string;
-  grid: SheetGrid;
+  grid: TableGrid;
   /** The pass the viewer may change; null: none. */
   editPass: ReadingPass | null;
   decimalComma: boolean;
@@ -47,7 +47,7 @@ export function useCellEditing({
   const start = useCallback(
     (cell: CellAt) => {
       if (editPass === null) return;
-      const existing = readingAt(grid, editPass, cell.rowIndex, cell.col);
+      const existing = entryAt(grid, editPass, cell.rowIndex, cell.col);
       setNotice(null);
       setEditing({ ...cell, text: existing?.rawText ?? '', error: null });
     },
@@ -63,7 +63,7 @@ export function useCellEditing({
 
   const commit = useCallback(() => {
     if (!editing || editPass === null || edit.isPending) return;
-    const existing = readingAt(grid, editPass, editing.rowIndex, editing.col) ?? null;
+    const existing = entryAt(grid, editPass, editing.rowIndex, editing.col) ?? null;
     if (existing && existing.rawText === editing.text) {
       cancel();
       return;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { makeMismatchCell, makeReading, makeResolution, makeRows } from '@/testing/sheet-fixtures';
-import { buildSheetGrid, cellState, entriesAgree, filterRows } from './sheet-grid';
+import type { Reading, Resolution, SheetRow } from '@dialsheet/common';
+import { makeReading, makeResolution, makeRows, makeSheetGrid } from '@/testing/sheet-fixtures';
+import { buildTableGrid, cellState, entriesAgree, entryAt, filterRows, withReading, withResolution } from './sheet-grid';
 
 const T1 = 't1';
 const T2 = 't2';
@@ -35,6 +36,19 @@ describe('entriesAgree', () => {
   });
 });
 
+/** The table's model of a server answer laid out from these readings. */
+function tableOf(opts: {
+  rows: SheetRow[];
+  channelIds: string[];
+  pass1: Reading[] | null;
+  pass2: Reading[] | null;
+  resolutions?: Resolution[] | null;
+  columns?: string[];
+}) {
+  const { columns, ...wire } = opts;
+  return buildTableGrid({ grid: makeSheetGrid(wire), channelIds: columns ?? opts.channelIds, parseOptions: point });
+}
+
 describe('sheet grid', () => {
   const rows = makeRows(4);
   const pass1 = [reading(1, 0, T1, '20.1'), reading(1, 1, T1, '20.8'), reading(1, 2, T1, '21.5'), reading(1, 0, T2, '3.1')];
@@ -42,32 +56,81 @@ describe('sheet grid', () => {
   const warned = { ...reading(1, 3, T2, '99.0'), warnings: [{ code: 'above-plausible' as const, message: '99 is above the plausible maximum of 90; check the frame' }] };
 
   it('states each cell for a viewer who sees both passes', () => {
-    const grid = buildSheetGrid({
+    const grid = tableOf({
       rows,
       channelIds: [T1, T2],
       pass1: [...pass1, warned],
       pass2,
-      mismatches: [makeMismatchCell(pass1[1], pass2[1], makeResolution({ rowIndex: 1, channelId: T1, rawText: '20.8' }))],
-      parseOptions: point,
+      resolutions: [makeResolution({ rowIndex: 1, channelId: T1, rawText: '20.8' })],
     });
     expect([0, 1, 2, 3].map((row) => cellState(grid, row, 0))).toEqual(['agree', 'resolved', 'flagged', 'missing']);
     expect([0, 1, 2, 3].map((row) => cellState(grid, row, 1))).toEqual(['agree', 'missing', 'missing', 'missing']);
     expect(filterRows(grid, 'mismatched').map((r) => r.index)).toEqual([1, 2]);
     expect(filterRows(grid, 'flagged').map((r) => r.index)).toEqual([2]);
     expect(filterRows(grid, 'warnings').map((r) => r.index)).toEqual([3]);
-    expect(filterRows(grid, 'all')).toBe(rows);
+    // 'all' hands back the model's own row list: no walk over ten thousand rows.
+    expect(filterRows(grid, 'all')).toBe(grid.rows);
+    expect(grid.rows).toEqual(rows);
   });
 
   it('shows one pass alone without comparing it to anything', () => {
-    const grid = buildSheetGrid({ rows, channelIds: [T1, T2], pass1: null, pass2, mismatches: null, parseOptions: point });
+    const grid = tableOf({ rows, channelIds: [T1, T2], pass1: null, pass2 });
     expect([0, 1, 2, 3].map((row) => cellState(grid, row, 0))).toEqual(['entered', 'entered', 'flagged', 'missing']);
     expect(filterRows(grid, 'mismatched')).toEqual([]);
     expect(filterRows(grid, 'flagged').map((r) => r.index)).toEqual([2]);
   });
 
-  it('ignores readings outside the sheet’s rows and channels', () => {
-    const stray = [reading(1, 9, T1, '1.0'), reading(1, 0, 'gone', '1.0')];
-    const grid = buildSheetGrid({ rows, channelIds: [T1], pass1: stray, pass2: [], mismatches: null, parseOptions: point });
-    expect(grid.pass1?.filter(Boolean)).toEqual([]);
+  it('reads the server’s cells in the page’s channel order, and nothing outside the sheet', () => {
+    // The server sends T2 before T1; the table's columns are T1, T2, and a channel it does not know.
+    const grid = tableOf({ rows, channelIds: [T2, T1], pass1, pass2: null, columns: [T1, T2, 'gone'] });
+    expect(entryAt(grid, 1, 0, 0)?.rawText).toBe('20.1');
+    expect(entryAt(grid, 1, 0, 1)?.rawText).toBe('3.1');
+    expect(entryAt(grid, 1, 0, 2)).toBeUndefined();
+    expect(entryAt(grid, 1, 4, 0)).toBeUndefined();
+    expect(entryAt(grid, 1, -1, 0)).toBeUndefined();
+    expect(cellState(grid, 0, 2)).toBe('missing');
+    expect(grid.rows).toEqual(rows);
+  });
+
+  it('keeps a resolution only while its cell is a mismatch, as the mismatch list does', () => {
+    // Row 0 agrees now (the reader corrected pass 1 after a lead resolved it): no longer shown.
+    const grid = tableOf({
+      rows,
+      channelIds: [T1, T2],
+      pass1,
+      pass2,
+      resolutions: [makeResolution({ rowIndex: 0, channelId: T1, rawText: '20.1' }), makeResolution({ rowIndex: 2, channelId: T1, rawText: '21.5' })],
+    });
+    expect([...grid.resolutions.keys()]).toEqual([`2:${T1}`]);
+    expect(cellState(grid, 0, 0)).toBe('agree');
+    expect(cellState(grid, 2, 0)).toBe('resolved');
+  });
+
+  it('puts a saved reading and a saved resolution into the server’s grid without touching the rest', () => {
+    const wire = makeSheetGrid({ rows, channelIds: [T1, T2], pass1, pass2, editPass: 2 });
+    const saved = { ...reading(2, 1, T1, '20.8'), version: 2, warnings: [{ code: 'above-plausible' as const, message: 'check the frame' }] };
+    const next = withReading(wire, saved);
+    expect(next.pass2?.rawText[2]).toBe('20.8');
+    expect(next.pass2?.edit?.version[2]).toBe(2);
+    expect(entryAt(buildTableGrid({ grid: next, channelIds: [T1, T2], parseOptions: point }), 2, 1, 0)).toMatchObject({ version: 2, frameTime: 2.5 });
+    // Pass 1 is not the viewer's to change: it carries no versions, and a reading put in keeps it so.
+    expect(withReading(next, { ...reading(1, 0, T1, '20.2'), version: 2 }).pass1?.edit).toBeNull();
+    expect(next.pass2?.warnings[2]).toEqual(saved.warnings);
+    expect(wire.pass2?.rawText[2]).toBe('20.9');
+    expect(next.pass1).toBe(wire.pass1);
+    const table = buildTableGrid({ grid: next, channelIds: [T1, T2], parseOptions: point });
+    expect(cellState(table, 1, 0)).toBe('agree');
+    expect(filterRows(table, 'warnings').map((r) => r.index)).toEqual([1]);
+    // A pass the viewer does not see, or a channel off the sheet, leaves the grid as it was.
+    const blind = makeSheetGrid({ rows, channelIds: [T1, T2], pass1: null, pass2 });
+    expect(withReading(blind, reading(1, 0, T1, '1.0'))).toBe(blind);
+    expect(withReading(wire, reading(1, 0, 'gone', '1.0'))).toBe(wire);
+
+    const first = makeResolution({ rowIndex: 2, channelId: T1, rawText: '21.5' });
+    const withOne = withResolution({ ...wire, resolutions: [] }, first);
+    expect(withOne.resolutions).toEqual([first]);
+    const changed = { ...first, rawText: '21.6', version: 2 };
+    expect(withResolution(withOne, changed).resolutions).toEqual([changed]);
+    expect(withResolution(wire, first)).toBe(wire);
   });
 });

@@ -1,0 +1,205 @@
+import { checkLimits, type CampaignRole, type LimitWarning, type ReadingPass, type SheetGrid, type SheetGridPass } from '@dialsheet/common';
+import { ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { isUUID } from 'class-validator';
+import { DataSource, In, LessThan } from 'typeorm';
+import type { AuthUser } from '../../core/auth-user';
+import { CampaignAccessService } from '../campaigns/campaign-access.service';
+import { ChannelEntity } from '../channels/channel.entity';
+import { sheetRows } from '../sheets/sheet-rules';
+import { SheetChannelEntity } from '../sheets/sheet-channel.entity';
+import { SheetEntity } from '../sheets/sheet.entity';
+import { SHEET_NOT_FOUND } from '../sheets/sheets.service';
+import { toResolution } from './reading.mapper';
+import { ResolutionEntity } from './resolution.entity';
+
+// The sheet table's read. The readings route sends one `Reading` object per cell, built from an
+// entity each: for 10 000 rows × 6 channels that is ~18 MB of JSON per pass and most of a page
+// load. Here PostgreSQL hands over each pass as a few JSON arrays (one per column, with each
+// entry's cell index beside it) and Node only puts them in place and finds the cells outside a
+// limit: no entities, no object per cell.
+// The blind rules are the readings and mismatch routes' own (readings.service.ts), restated as
+// "may see" answers rather than refusals, because one answer here carries all three.
+
+/** Who sees every pass of every sheet in the campaign (as in readings.service.ts). */
+const OVERSEERS: readonly CampaignRole[] = ['lead', 'engineer'];
+
+export const GRID_HIDDEN = 'The sheet’s entries are shown to its reader and checker, the Lead and Engineers only';
+
+interface GridSheet {
+  readerId: string | null;
+  checkerId: string | null;
+  pass2FinishedAt: Date | null;
+}
+
+/**
+ * Whether the readings route would send this pass to the user. The checker never sees pass 1
+ * before finishing pass 2, nor the reader pass 2, whatever other roles they hold.
+ */
+export function mayReadPass(userId: string, roles: readonly CampaignRole[], sheet: GridSheet, pass: ReadingPass): boolean {
+  const reader = sheet.readerId === userId;
+  const checker = sheet.checkerId === userId;
+  if (pass === 1) {
+    if (checker && !sheet.pass2FinishedAt) return false;
+    if (reader || checker) return true;
+  } else {
+    if (reader && !sheet.pass2FinishedAt) return false;
+    if (checker || reader) return true;
+  }
+  return OVERSEERS.some((r) => roles.includes(r));
+}
+
+/** Whether the mismatch route would answer the user (it shows both passes side by side). */
+export function mayReadMismatches(userId: string, roles: readonly CampaignRole[], sheet: GridSheet): boolean {
+  // Checked before the overseeing roles: a Lead who is also this sheet's checker stays blind.
+  if (sheet.readerId === userId || sheet.checkerId === userId) return sheet.pass2FinishedAt !== null;
+  return OVERSEERS.some((r) => roles.includes(r));
+}
+
+/** Only the owner of a pass changes its entries, and only until they mark it finished. */
+export function mayEditPass(userId: string, sheet: GridSheet & { pass1FinishedAt: Date | null }, pass: ReadingPass): boolean {
+  return pass === 1 ? sheet.readerId === userId && !sheet.pass1FinishedAt : sheet.checkerId === userId && !sheet.pass2FinishedAt;
+}
+
+type Limits = Pick<ChannelEntity, 'plausibleMin' | 'plausibleMax' | 'operatingMin' | 'operatingMax'>;
+
+/** One pass as PostgreSQL sends it: entries in no particular order, the same order in every array. */
+interface StoredColumns {
+  /** Cell index (row × channels + channel position) of each entry. */
+  cell: number[];
+  rawText: string[];
+  flag: SheetGridPass['flag'];
+  /** Null unless the viewer may change this pass. */
+  version: number[] | null;
+  frameTime: (number | null)[] | null;
+  /** [cell, value] of the entries outside a limit of their channel; null when there are none. */
+  outside: Array<[number, number]> | null;
+}
+
+/**
+ * A pass laid out cell by cell (nulls where nothing is entered) with the warnings the readings
+ * route would attach, for the few cells that have any.
+ */
+export function layOutPass(stored: StoredColumns, cells: number, channels: readonly Limits[]): SheetGridPass {
+  const rawText = new Array<string | null>(cells).fill(null);
+  const flag = new Array<SheetGridPass['flag'][number]>(cells).fill(null);
+  for (let k = 0; k < stored.cell.length; k++) {
+    const i = stored.cell[k];
+    rawText[i] = stored.rawText[k];
+    flag[i] = stored.flag[k];
+  }
+  let edit: SheetGridPass['edit'] = null;
+  if (stored.version && stored.frameTime) {
+    edit = { version: new Array<number | null>(cells).fill(null), frameTime: new Array<number | null>(cells).fill(null) };
+    for (let k = 0; k < stored.cell.length; k++) {
+      edit.version[stored.cell[k]] = stored.version[k];
+      edit.frameTime[stored.cell[k]] = stored.frameTime[k];
+    }
+  }
+  const warnings: Record<number, LimitWarning[]> = {};
+  const width = channels.length;
+  for (const [i, value] of stored.outside ?? []) {
+    // The messages come from the same function as the readings route's.
+    const found = checkLimits(value, channels[i % width]);
+    if (found.length > 0) warnings[i] = found;
+  }
+  return { rawText, flag, edit, warnings };
+}
+
+@Injectable()
+export class SheetGridService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly access: CampaignAccessService,
+  ) {}
+
+  async grid(user: AuthUser, sheetId: string): Promise<SheetGrid> {
+    const manager = this.dataSource.manager;
+    // As the readings routes: a sheet outside the caller's campaigns is "not found", like an unknown id.
+    if (!isUUID(sheetId)) throw new NotFoundException(SHEET_NOT_FOUND);
+    const sheet = await manager.findOne(SheetEntity, { where: { id: sheetId } });
+    if (!sheet) throw new NotFoundException(SHEET_NOT_FOUND);
+    let roles: readonly CampaignRole[];
+    try {
+      roles = (await this.access.require(user, sheet.campaignId, [], { manager })).member.roles;
+    } catch (error) {
+      if (error instanceof NotFoundException) throw new NotFoundException(SHEET_NOT_FOUND);
+      throw error;
+    }
+    const see1 = mayReadPass(user.id, roles, sheet, 1);
+    const see2 = mayReadPass(user.id, roles, sheet, 2);
+    // Both readings routes would refuse: so does this one, rather than answer with nothing in it.
+    if (!see1 && !see2) throw new ForbiddenException(GRID_HIDDEN);
+
+    const links = await manager.find(SheetChannelEntity, { where: { sheetId: sheet.id }, order: { position: 'ASC' } });
+    const found = await manager.find(ChannelEntity, { where: { id: In(links.map((l) => l.channelId)) } });
+    const byId = new Map(found.map((c) => [c.id, c]));
+    const channels = links.flatMap((l) => (byId.has(l.channelId) ? [byId.get(l.channelId) as ChannelEntity] : []));
+    const channelIds = channels.map((c) => c.id);
+    const testTimes = sheetRows(sheet.startTime, sheet.endTime, sheet.interval).map((r) => r.testTime);
+    const passes = ([1, 2] as const).filter((p) => (p === 1 ? see1 : see2));
+
+    const editable = passes.filter((p) => mayEditPass(user.id, sheet, p));
+    const limit = (key: keyof Limits) => channels.map((c) => c[key] ?? null);
+
+    // One row per visible pass holding its entries on the plan's rows and channels (entries off
+    // the plan, from a sheet shortened later, are left out as the readings route leaves them out).
+    // Serialising each value costs the most here, so only what the viewer needs is sent: versions
+    // and frames for a pass they may change, values only where outside a limit (a comparison with
+    // an absent limit is null, so it picks nothing). The arrays are not sorted (ordering each
+    // aggregate costs a sort apiece); each entry carries its cell index instead. The aggregates of
+    // a group step through its rows together, so element k of every array is the same entry
+    // (PostgreSQL's executor; common practice).
+    const rows = (await manager.query(
+      `SELECT r.pass, json_build_object(
+                'cell', json_agg(r.row_index * $3::int + ch.pos - 1),
+                'rawText', json_agg(r.raw_text),
+                'flag', json_agg(r.flag),
+                'version', json_agg(r.version) FILTER (WHERE r.pass = ANY($6::int[])),
+                'frameTime', json_agg(r.frame_time) FILTER (WHERE r.pass = ANY($6::int[])),
+                'outside', json_agg(json_build_array(r.row_index * $3::int + ch.pos - 1, r.value))
+                  FILTER (WHERE r.value < ch.plausible_min OR r.value > ch.plausible_max OR r.value < ch.operating_min OR r.value > ch.operating_max)
+              )::text AS columns
+         FROM readings r
+         JOIN unnest($4::uuid[], $7::float8[], $8::float8[], $9::float8[], $10::float8[])
+              WITH ORDINALITY AS ch(id, plausible_min, plausible_max, operating_min, operating_max, pos)
+           ON ch.id = r.channel_id
+        WHERE r.sheet_id = $1 AND r.pass = ANY($2::int[]) AND r.row_index < $5::int
+        GROUP BY r.pass`,
+      [
+        sheet.id,
+        passes,
+        channelIds.length,
+        channelIds,
+        testTimes.length,
+        editable,
+        limit('plausibleMin'),
+        limit('plausibleMax'),
+        limit('operatingMin'),
+        limit('operatingMax'),
+      ],
+    )) as Array<{ pass: number; columns: string }>;
+    const byPass = new Map(rows.map((r) => [Number(r.pass), JSON.parse(r.columns) as StoredColumns]));
+    const cells = testTimes.length * channelIds.length;
+    const passOf = (pass: ReadingPass): SheetGridPass | null => {
+      if (!passes.includes(pass)) return null;
+      const mine = editable.includes(pass);
+      // No row for a pass that has no entries yet.
+      const stored = byPass.get(pass) ?? { cell: [], rawText: [], flag: [], version: mine ? [] : null, frameTime: mine ? [] : null, outside: null };
+      return layOutPass(stored, cells, channels);
+    };
+
+    let resolutions: SheetGrid['resolutions'] = null;
+    if (mayReadMismatches(user.id, roles, sheet)) {
+      const order = new Map(channelIds.map((id, i) => [id, i]));
+      const stored = await manager.find(ResolutionEntity, {
+        where: { sheetId: sheet.id, rowIndex: LessThan(testTimes.length), channelId: In(channelIds) },
+      });
+      resolutions = stored
+        .sort((a, b) => a.rowIndex - b.rowIndex || (order.get(a.channelId) ?? 0) - (order.get(b.channelId) ?? 0))
+        .map(toResolution);
+    }
+
+    return { sheetId: sheet.id, testTimes, channelIds, pass1: passOf(1), pass2: passOf(2), resolutions };
+  }
+}
