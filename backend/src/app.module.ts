@@ -8,8 +8,11 @@ import { AppConfig } from './config/app-config';
 import { ConfigModule } from './config/config.module';
 import { buildDataSourceOptions } from './database/data-source-options';
 import { AdminModule } from './modules/admin/admin.module';
+import { AnalysisRecomputeModule } from './modules/analyses/analysis-recompute.module';
+import { AnalysesModule } from './modules/analyses/analyses.module';
 import { AuditModule } from './modules/audit/audit.module';
 import { AuthModule } from './modules/auth/auth.module';
+import { CalibrationsModule } from './modules/calibrations/calibrations.module';
 import { CampaignsModule } from './modules/campaigns/campaigns.module';
 import { ChannelsModule } from './modules/channels/channels.module';
 import { HealthModule } from './modules/health/health.module';
@@ -52,6 +55,9 @@ export class AppModule {
       ChannelsModule,
       SheetsModule,
       ReadingsModule,
+      CalibrationsModule,
+      AnalysesModule,
+      AnalysisRecomputeModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

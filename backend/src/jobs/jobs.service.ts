@@ -22,6 +22,8 @@ interface Registration {
   /** Called once the worker for this queue runs (e.g. to pick up work a dead process left). */
   onWorkerStart?: () => Promise<void>;
   workerId?: string;
+  /** pg-boss cron expression: the queue gets a job on this schedule (minute resolution). */
+  cron?: string;
 }
 
 export interface SendOptions {
@@ -58,6 +60,23 @@ export class JobsService implements OnApplicationBootstrap, BeforeApplicationShu
     this.queues.set(name, { ...this.queues.get(name), settings });
   }
 
+  /**
+   * Sends a job to the queue on a cron schedule. pg-boss keeps schedules in its tables and
+   * enqueues at most one job per tick across all processes, so several API processes do not
+   * multiply the work. Only processes with the worker on keep the schedule (and its clock) alive.
+   */
+  defineSchedule(name: string, cron: string): void {
+    const queue = this.queues.get(name);
+    if (!queue) throw new Error(`define queue ${name} before its schedule`);
+    if (this.boss) throw new Error(`the schedule of ${name} must be defined before the application starts`);
+    queue.cron = cron;
+  }
+
+  /** Stops the schedule of a queue in every process (tests that must not be interrupted use it). */
+  async unschedule(name: string): Promise<void> {
+    await this.requireBoss().unschedule(name);
+  }
+
   registerWorker<T extends object>(name: string, handler: JobHandler<T>, onWorkerStart?: () => Promise<void>): void {
     const queue = this.queues.get(name);
     if (!queue) throw new Error(`define queue ${name} before registering its worker`);
@@ -71,8 +90,9 @@ export class JobsService implements OnApplicationBootstrap, BeforeApplicationShu
       schema: JOBS_SCHEMA,
       application_name: 'dialsheet-jobs',
       max: 4,
-      // No cron schedules are used; expiry, retries and clean-up still run through supervise.
-      schedule: false,
+      // Cron schedules run only where the worker runs (and only when a queue asks for one);
+      // expiry, retries and clean-up run through supervise everywhere.
+      schedule: this.config.worker && [...this.queues.values()].some((q) => q.cron !== undefined),
       supervise: true,
       migrate: true,
     });
@@ -91,6 +111,9 @@ export class JobsService implements OnApplicationBootstrap, BeforeApplicationShu
       await boss.updateQueue(name, options);
     }
     if (!this.config.worker) return;
+    for (const [name, queue] of this.queues) {
+      if (queue.cron !== undefined) await boss.schedule(name, queue.cron);
+    }
     for (const [name, queue] of this.queues) {
       if (!queue.handler) continue;
       const handler = queue.handler;

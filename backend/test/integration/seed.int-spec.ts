@@ -7,6 +7,8 @@ import { join } from 'node:path';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildDataSourceOptions } from '../../src/database/data-source-options';
+import { compileChain } from '@dialsheet/common/dist/analysis';
+import { standardDensity } from '@dialsheet/common/dist/units';
 import { DEMO_ACCOUNTS, DEMO_CAMPAIGN_NAME, DEMO_RUNS, seedDemo } from '../../src/database/seed/demo-seed';
 import { DEMO_SHEET, ingestDemoVideos } from '../../src/database/seed/demo-videos';
 import { SeedModule } from '../../src/database/seed/seed.module';
@@ -52,14 +54,15 @@ describe('demo seed', () => {
 
   it('creates the five accounts and the campaign, and a second run changes nothing', async () => {
     const first = await seedDemo(db, DEMO_PASSWORD);
-    expect(first).toEqual({ usersCreated: 5, campaignCreated: true, membersAdded: 4, runsCreated: 3, channelsCreated: 6 });
+    expect(first).toEqual({ usersCreated: 5, campaignCreated: true, membersAdded: 4, runsCreated: 3, channelsCreated: 6, analysisSetupCreated: 3 });
     const after1 = await counts(db);
-    // Audit: campaign, four memberships, three runs, six channels. Without videos, no regions or sheets.
-    expect(after1).toEqual({ users: 5, campaigns: 1, members: 4, channels: 6, regions: 0, sheets: 0, sheetChannels: 0, audit: 14 });
+    // Audit: campaign, four memberships, three runs, six channels, the flow meter's calibration, the
+    // steady rule and the heat-rate derived channel. Without videos, no regions or sheets.
+    expect(after1).toEqual({ users: 5, campaigns: 1, members: 4, channels: 6, regions: 0, sheets: 0, sheetChannels: 0, audit: 17 });
 
     const hashes1 = await db.query(`SELECT email, password_hash, updated_at FROM users WHERE email LIKE '%@demo.test' ORDER BY email`);
     const second = await seedDemo(db, DEMO_PASSWORD);
-    expect(second).toEqual({ usersCreated: 0, campaignCreated: false, membersAdded: 0, runsCreated: 0, channelsCreated: 0 });
+    expect(second).toEqual({ usersCreated: 0, campaignCreated: false, membersAdded: 0, runsCreated: 0, channelsCreated: 0, analysisSetupCreated: 0 });
     expect(await counts(db)).toEqual(after1);
     expect(await db.query(`SELECT email, password_hash, updated_at FROM users WHERE email LIKE '%@demo.test' ORDER BY email`)).toEqual(hashes1);
   });
@@ -155,6 +158,28 @@ describe('demo seed', () => {
       await db.query('UPDATE channels SET position = $2 + 100 WHERE id = $1', [id, position]);
     }
     await db.query('UPDATE channels SET position = position - 100 WHERE campaign_id = $1', [campaignId]);
+  });
+
+  it('gives the flow meter its chain to g/min, the steady-outlet rule and the warm-stream heat rate, by the demo engineer', async () => {
+    const campaignId = (await db.query('SELECT id FROM campaigns WHERE name = $1', [DEMO_CAMPAIGN_NAME]))[0].id as string;
+    const [cal] = await db.query(
+      `SELECT cc.chain, cc.engineering_unit, cc.version, u.email FROM channel_calibrations cc JOIN channels c ON c.id = cc.channel_id
+         JOIN users u ON u.id = cc.updated_by WHERE c.campaign_id = $1 AND c.symbol = 'V'`,
+      [campaignId],
+    );
+    expect(cal).toMatchObject({ engineering_unit: 'g/min', version: 1, email: 'engineer@demo.test' });
+    const chain = compileChain(cal.chain, 'V');
+    // 5 V is the full 200 standard L/min; dry air at 0 °C, 101.325 kPa is 1.2922 kg/m³ as an ideal
+    // gas (Wikipedia "Density of air"; Engineers Edge; shared/reference/air-standard-density.json),
+    // so 200 L/min ≈ 258.4 g/min.
+    expect(chain.apply(5)).toBeCloseTo(200 * standardDensity('0C'), 9);
+    expect(chain.apply(5)).toBeCloseTo(200 * 1.2922, 1);
+    // ±1.5 % of 200 standard L/min, as a rectangular ± on the first step (common practice).
+    expect(cal.chain.steps[0].uncertainty).toMatchObject({ basis: 'absolute', value: 3 });
+    const rules = await db.query('SELECT name, window_seconds, slope_limit_per_minute, channel_id FROM stability_rules WHERE campaign_id = $1', [campaignId]);
+    expect(rules).toEqual([{ name: 'Steady outlet', window_seconds: 300, slope_limit_per_minute: 0.05, channel_id: null }]);
+    const derived = await db.query('SELECT symbol, unit, expression, constants, inputs FROM derived_channels WHERE campaign_id = $1', [campaignId]);
+    expect(derived).toEqual([{ symbol: 'Q_warm', unit: 'W', expression: 'V / 60 * cp * (T1 - T2)', constants: { cp: 1.006 }, inputs: ['T1', 'T2', 'V'] }]);
   });
 
   it('gives the demo campaign its three runs with their configurations', async () => {

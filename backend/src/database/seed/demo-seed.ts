@@ -12,6 +12,7 @@ import { RunEntity } from '../../modules/runs/run.entity';
 import { runSnapshot } from '../../modules/runs/run.mapper';
 import { PasswordHasher } from '../../modules/users/password-hasher.service';
 import { UserEntity } from '../../modules/users/user.entity';
+import { seedAnalysisSetup } from './demo-analysis';
 
 export const DEMO_CAMPAIGN_NAME = 'Heat-recovery core bench test';
 
@@ -162,6 +163,8 @@ export interface SeedResult {
   membersAdded: number;
   runsCreated: number;
   channelsCreated: number;
+  /** Calibration chains, stability rules and derived channels added (the engineer's set-up). */
+  analysisSetupCreated: number;
 }
 
 /**
@@ -173,7 +176,7 @@ export async function seedDemo(dataSource: DataSource, demoPassword: string): Pr
   return dataSource.transaction(async (manager) => {
     // Two seeds started at once would otherwise both see "missing" and race on the unique e-mail.
     await manager.query(`SELECT pg_advisory_xact_lock(hashtext('dialsheet-demo-seed'))`);
-    const result: SeedResult = { usersCreated: 0, campaignCreated: false, membersAdded: 0, runsCreated: 0, channelsCreated: 0 };
+    const result: SeedResult = { usersCreated: 0, campaignCreated: false, membersAdded: 0, runsCreated: 0, channelsCreated: 0, analysisSetupCreated: 0 };
     const users = new Map<string, UserEntity>();
     for (const account of DEMO_ACCOUNTS) {
       let user = await manager.findOneBy(UserEntity, { email: account.email });
@@ -247,6 +250,8 @@ export async function seedDemo(dataSource: DataSource, demoPassword: string): Pr
       result.runsCreated += 1;
     }
     result.channelsCreated = await seedChannels(manager, campaign, lead);
+    const setup = await seedAnalysisSetup(manager, campaign, users.get('engineer@demo.test') as UserEntity);
+    result.analysisSetupCreated = setup.calibrations + setup.rules + setup.derivedChannels;
     return result;
   });
 }
