@@ -50,6 +50,18 @@ export function createAppRoutes(): RouteObject[] {
                   lazy: () => import('./routes/app/run').then((m) => ({ Component: m.RunRoute })),
                 },
                 {
+                  path: 'runs/:runId/analysis',
+                  lazy: () => import('./routes/app/run-analysis').then((m) => ({ Component: m.RunAnalysisRoute })),
+                },
+                {
+                  path: 'analysis',
+                  lazy: () => import('./routes/app/campaign-analysis').then((m) => ({ Component: m.CampaignAnalysisRoute })),
+                },
+                {
+                  path: 'balance',
+                  lazy: () => import('./routes/app/campaign-balance').then((m) => ({ Component: m.CampaignBalanceRoute })),
+                },
+                {
                   path: 'sheets/:sheetId',
                   lazy: () => import('./routes/app/sheet').then((m) => ({ Component: m.SheetRoute })),
                 },

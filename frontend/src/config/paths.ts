@@ -45,6 +45,18 @@ export const paths = {
     path: '/campaigns/:campaignId/audit',
     getHref: (campaignId: string) => `/campaigns/${campaignId}/audit`,
   },
+  campaignAnalysis: {
+    path: '/campaigns/:campaignId/analysis',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/analysis`,
+  },
+  campaignBalance: {
+    path: '/campaigns/:campaignId/balance',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/balance`,
+  },
+  runAnalysis: {
+    path: '/campaigns/:campaignId/runs/:runId/analysis',
+    getHref: (campaignId: string, runId: string) => `/campaigns/${campaignId}/runs/${runId}/analysis`,
+  },
   account: { path: '/account', getHref: () => '/account' },
   adminMail: { path: '/admin/mail', getHref: (mailId?: string) => (mailId ? `/admin/mail?id=${encodeURIComponent(mailId)}` : '/admin/mail') },
   adminUsers: { path: '/admin/users', getHref: () => '/admin/users' },

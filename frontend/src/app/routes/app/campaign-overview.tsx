@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Button, Card, Col, Row, Tag } from 'antd';
-import { AuditOutlined, EditOutlined, RightOutlined, TeamOutlined, VideoCameraOutlined } from '@ant-design/icons';
+import { AuditOutlined, EditOutlined, LineChartOutlined, PercentageOutlined, RightOutlined, TeamOutlined, VideoCameraOutlined } from '@ant-design/icons';
 import { paths } from '@/config/paths';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
@@ -52,6 +52,12 @@ export function CampaignOverviewRoute() {
               </Link>
               <Link to={paths.campaignMembers.getHref(campaign.id)} className="overview-link">
                 <TeamOutlined /> Members <span className="overview-link-count">{campaign.memberCount}</span> <RightOutlined />
+              </Link>
+              <Link to={paths.campaignAnalysis.getHref(campaign.id)} className="overview-link">
+                <LineChartOutlined /> Analysis <span className="overview-link-count">calibrations and stable values</span> <RightOutlined />
+              </Link>
+              <Link to={paths.campaignBalance.getHref(campaign.id)} className="overview-link">
+                <PercentageOutlined /> Balances <span className="overview-link-count">mass and energy closure</span> <RightOutlined />
               </Link>
               <Link to={paths.campaignAudit.getHref(campaign.id)} className="overview-link">
                 <AuditOutlined /> Audit trail <span className="overview-link-count">every change</span> <RightOutlined />

@@ -1,7 +1,7 @@
 import { useCallback, useRef, useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Breadcrumb, Button, Col, Row, Skeleton, Space } from 'antd';
-import { EditOutlined } from '@ant-design/icons';
+import { EditOutlined, LineChartOutlined } from '@ant-design/icons';
 import { toTestTime, type SyncMarks } from '@dialsheet/common';
 import { paths } from '@/config/paths';
 import { PageHeader } from '@/components/ui/page-header';
@@ -113,14 +113,19 @@ export function RunRoute() {
         title={current.name}
         subtitle={subtitle || undefined}
         actions={
-          canEdit ? (
-            <Space size={8}>
-              <Button icon={<EditOutlined />} onClick={() => setEditing(true)}>
-                Edit
-              </Button>
-              <DeleteRunButton run={current} onDeleted={() => navigate(paths.campaignRuns.getHref(campaign.id), { replace: true })} />
-            </Space>
-          ) : null
+          <Space size={8}>
+            <Link to={paths.runAnalysis.getHref(campaign.id, current.id)}>
+              <Button icon={<LineChartOutlined />}>Analysis</Button>
+            </Link>
+            {canEdit ? (
+              <>
+                <Button icon={<EditOutlined />} onClick={() => setEditing(true)}>
+                  Edit
+                </Button>
+                <DeleteRunButton run={current} onDeleted={() => navigate(paths.campaignRuns.getHref(campaign.id), { replace: true })} />
+              </>
+            ) : null}
+          </Space>
         }
       />
       <Row gutter={[16, 16]}>
