@@ -62,6 +62,18 @@ export function createAppRoutes(): RouteObject[] {
                   lazy: () => import('./routes/app/campaign-balance').then((m) => ({ Component: m.CampaignBalanceRoute })),
                 },
                 {
+                  path: 'dashboard',
+                  lazy: () => import('./routes/app/campaign-dashboard').then((m) => ({ Component: m.CampaignDashboardRoute })),
+                },
+                {
+                  path: 'releases',
+                  lazy: () => import('./routes/app/campaign-releases').then((m) => ({ Component: m.CampaignReleasesRoute })),
+                },
+                {
+                  path: 'releases/:releaseId/report',
+                  lazy: () => import('./routes/app/release-report').then((m) => ({ Component: m.ReleaseReportRoute })),
+                },
+                {
                   path: 'sheets/:sheetId',
                   lazy: () => import('./routes/app/sheet').then((m) => ({ Component: m.SheetRoute })),
                 },

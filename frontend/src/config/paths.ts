@@ -57,6 +57,18 @@ export const paths = {
     path: '/campaigns/:campaignId/runs/:runId/analysis',
     getHref: (campaignId: string, runId: string) => `/campaigns/${campaignId}/runs/${runId}/analysis`,
   },
+  campaignDashboard: {
+    path: '/campaigns/:campaignId/dashboard',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/dashboard`,
+  },
+  campaignReleases: {
+    path: '/campaigns/:campaignId/releases',
+    getHref: (campaignId: string) => `/campaigns/${campaignId}/releases`,
+  },
+  releaseReport: {
+    path: '/campaigns/:campaignId/releases/:releaseId/report',
+    getHref: (campaignId: string, releaseId: string) => `/campaigns/${campaignId}/releases/${releaseId}/report`,
+  },
   account: { path: '/account', getHref: () => '/account' },
   adminMail: { path: '/admin/mail', getHref: (mailId?: string) => (mailId ? `/admin/mail?id=${encodeURIComponent(mailId)}` : '/admin/mail') },
   adminUsers: { path: '/admin/users', getHref: () => '/admin/users' },

@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { useDocumentTitle } from '@/hooks/use-document-title';
 import { ProfileForm } from '@/features/auth/components/profile-form';
 import { ChangePasswordForm } from '@/features/auth/components/change-password-form';
+import { NotificationSettings } from '@/features/releases/components/notification-settings';
 
 export function AccountRoute() {
   useDocumentTitle('Account');
@@ -29,6 +30,11 @@ export function AccountRoute() {
             <ChangePasswordForm
               onChanged={() => void signOut({ reason: 'password-changed', skipServer: true })}
             />
+          </Card>
+        </Col>
+        <Col xs={24} lg={12}>
+          <Card size="small" title="E-mail notifications" className="section-card">
+            <NotificationSettings />
           </Card>
         </Col>
         <Col xs={24} lg={12}>

@@ -10,6 +10,7 @@ import { useCampaign } from '@/features/campaigns/api/get-campaign';
 import { CampaignSummary } from '@/features/campaigns/components/campaign-summary';
 import { EditCampaignModal } from '@/features/campaigns/components/edit-campaign-modal';
 import { ArchiveCampaignButton } from '@/features/campaigns/components/archive-campaign-button';
+import { DashboardOutlined, SafetyCertificateOutlined } from '@ant-design/icons';
 
 export function CampaignOverviewRoute() {
   const { campaignId = '' } = useParams();
@@ -58,6 +59,14 @@ export function CampaignOverviewRoute() {
               </Link>
               <Link to={paths.campaignBalance.getHref(campaign.id)} className="overview-link">
                 <PercentageOutlined /> Balances <span className="overview-link-count">mass and energy closure</span> <RightOutlined />
+              </Link>
+              {campaign.myRoles.includes('lead') || campaign.myRoles.includes('engineer') ? (
+                <Link to={paths.campaignDashboard.getHref(campaign.id)} className="overview-link">
+                  <DashboardOutlined /> Dashboard <span className="overview-link-count">progress and readiness</span> <RightOutlined />
+                </Link>
+              ) : null}
+              <Link to={paths.campaignReleases.getHref(campaign.id)} className="overview-link">
+                <SafetyCertificateOutlined /> Releases <span className="overview-link-count">sign-off and export</span> <RightOutlined />
               </Link>
               <Link to={paths.campaignAudit.getHref(campaign.id)} className="overview-link">
                 <AuditOutlined /> Audit trail <span className="overview-link-count">every change</span> <RightOutlined />
