@@ -1,4 +1,5 @@
 import type {
+  ChannelCalibration,
   Analysis,
   AuditEntry,
   BalanceAnalysis,
@@ -324,6 +325,29 @@ describe('analyses: series, stable values, balances, stale marking', () => {
     const direct = stableValue(points, { from: 10, to: 50 }, 50, { id: q30.id, rawUnit: 'W', resolution: 0 }, null, { includeResolution: false });
     expect(heat.result!.stable.value).toBeCloseTo(direct.value, 9);
     expect(heat.result!.stable.unit).toBe('W');
+    // Its budget: the derived series' fit, plus each input's instrument uncertainty at t* (its
+    // budget without the fit line) times ∂f/∂input, here by hand for f = V/60·cp·(T2 − 30)
+    // (GUM 5.1.2, independent inputs; the server takes the derivatives by central difference).
+    const calibrations = (await call(t.http, 'get', `/api/campaigns/${f.campaign.id}/calibrations`, f.tokens.engineer)).body as ChannelCalibration[];
+    const vChain = compileChain(calibrations.find((c) => c.channelId === V.id)!.chain, 'V');
+    const instruments = (s: ChannelSeries, channelSpec: ChannelSpec, chain: ReturnType<typeof compileChain> | null) => {
+      const rawPoints: TrendPoint[] = s.t.map((time, i) => ({ t: time, y: s.raw[i], unchecked: s.unchecked[i] }));
+      const at = stableValue(rawPoints, { from: 10, to: 50 }, 50, channelSpec, chain);
+      const lines = at.budget.components.filter((c) => c.name !== 'trend fit at t*');
+      expect(lines.length).toBeGreaterThan(0);
+      return { value: at.value, u: Math.sqrt(lines.reduce((sum, c) => sum + c.contribution ** 2, 0)) };
+    };
+    const vAt = instruments(v, spec(), vChain);
+    const tAt = instruments(temp, { id: T2.id, name: T2.name, rawUnit: T2.rawUnit, resolution: T2.resolution, fullScale: T2.fullScale, accuracy: T2.accuracy }, null);
+    const cV = (1.006 * (tAt.value - 30)) / 60;
+    const cT = (vAt.value * 1.006) / 60;
+    const uFit = direct.budget.combinedStandardUncertainty;
+    const expectedUc = Math.sqrt(uFit ** 2 + (cV * vAt.u) ** 2 + (cT * tAt.u) ** 2);
+    const budget = heat.result!.stable.budget;
+    expect(budget.components.map((c) => c.name).sort()).toEqual(['T2 instruments', 'V instruments', 'trend fit at t*']);
+    expect(Math.abs(budget.combinedStandardUncertainty - expectedUc) / expectedUc).toBeLessThan(1e-6);
+    expect(budget.combinedStandardUncertainty).toBeGreaterThan(uFit);
+    expect(heat.result!.stable.expandedUncertainty).toBeCloseTo(2 * budget.combinedStandardUncertainty, 12);
     const inUse = await call(t.http, 'delete', `/api/derived-channels/${q30.id}`, f.tokens.engineer);
     expect(inUse.status).toBe(409);
     expect((await call(t.http, 'delete', `/api/analyses/${heat.id}`, f.tokens.engineer)).status).toBe(204);

@@ -17,9 +17,11 @@ export { evaluateStability, validateStabilityRule } from './stability';
 export type { StabilityOptions } from './stability';
 export {
   DEFAULT_COVERAGE_FACTOR,
+  FIT_COMPONENT_NAME,
   accuracyComponent,
   combineBudget,
   fitComponent,
+  formatNumber,
   resolutionComponent,
   statedComponent,
 } from './uncertainty';

@@ -149,13 +149,16 @@ export function resolutionComponent(channel: ChannelSpec, sensitivity = 1): Comp
   };
 }
 
+/** The name of the fit's line in a budget (the rest are the instrument's and calibration's). */
+export const FIT_COMPONENT_NAME = 'trend fit at t*';
+
 /**
  * The trend fit's standard error of the mean response at t*, a Type A standard uncertainty (GUM
  * 4.2). Readings every few seconds are autocorrelated, so this is on the optimistic side.
  */
 export function fitComponent(prediction: FitPrediction, unit: string, dof?: number): ComponentInput {
   return {
-    name: 'trend fit at t*',
+    name: FIT_COMPONENT_NAME,
     sourceId: null,
     value: prediction.meanSe,
     unit,

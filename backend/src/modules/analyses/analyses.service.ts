@@ -7,11 +7,28 @@ import type {
   EnergyStream,
   MassStream,
   MeasuredValue,
+  ChannelSeries,
+  StableValue,
   StableValueInput,
+  StableValueOptions,
   StableValueOutput,
   TrendPoint,
 } from '@dialsheet/common';
-import { compileChain, energyBalance, evaluateStability, massBalance, measuredFromBudget, stableValue } from '@dialsheet/common/dist/analysis';
+import {
+  combineBudget,
+  compileChain,
+  compileExpression,
+  derivedUncertainty,
+  energyBalance,
+  evaluateStability,
+  FIT_COMPONENT_NAME,
+  formatNumber,
+  massBalance,
+  measuredFromBudget,
+  stableValue,
+  type ComponentInput,
+  type DerivedInput,
+} from '@dialsheet/common/dist/analysis';
 import { BadRequestException, ConflictException, HttpException, Injectable, Logger, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, QueryFailedError } from 'typeorm';
@@ -19,6 +36,7 @@ import type { AuthUser } from '../../core/auth-user';
 import { AuditService } from '../audit/audit.service';
 import { asBadRequest, checkBaseVersion, iso } from '../calibrations/analysis-input';
 import { AnalysisSetupAccess } from '../calibrations/analysis-setup-access';
+import type { DerivedChannelRow } from '../calibrations/calibration-records';
 import { loadContext, type CampaignContext } from './analysis-context';
 import { changesSince, channelKeys, currentState, digestOf, type CurrentState, type Digest } from './analysis-digest';
 import { balanceInputProblems, cleanBalanceInput, cleanStableValueInput, stableValueInputProblems } from './analysis-input-rules';
@@ -371,10 +389,7 @@ export class AnalysesService {
       const chain = asBadRequest(() => compileChain(ctx.calibrations.get(channel.id)?.chain ?? null, channel.raw_unit));
       stable = asBadRequest(() => stableValue(points, input.window, input.tStar, spec, chain, options));
     } else {
-      // A derived value has no display of its own: no resolution or instrument spec, the fit only.
-      const spec: ChannelSpec = { id: derived!.id, name: derived!.name, rawUnit: series.unit, resolution: 0 };
-      const points: TrendPoint[] = series.t.map((t, i) => ({ t, y: series.value[i], unchecked: series.unchecked[i] }));
-      stable = asBadRequest(() => stableValue(points, input.window, input.tStar, spec, null, { ...options, includeResolution: false }));
+      stable = await this.derivedStableValue(manager, ctx, derived!, series, input, options);
     }
     let stability = null;
     if (rule) {
@@ -400,6 +415,70 @@ export class AnalysesService {
       uses: [],
       ruleId: rule?.id ?? null,
     };
+  }
+
+  /**
+   * A derived value has no display of its own. Its budget is the fit of the derived series (the
+   * scatter of its inputs is in that series already) plus its inputs' instrument uncertainties at
+   * t* (spec, resolution, calibration steps: each input channel's budget without its fit line),
+   * propagated through the expression with sensitivity coefficients (GUM 5.1.2, inputs taken as
+   * independent). An input that is itself derived adds its fit only, and the budget says so.
+   */
+  private async derivedStableValue(
+    manager: EntityManager,
+    ctx: CampaignContext,
+    derived: DerivedChannelRow,
+    series: ChannelSeries,
+    input: StableValueInput,
+    options: StableValueOptions,
+  ): Promise<StableValue> {
+    const spec: ChannelSpec = { id: derived.id, name: derived.name, rawUnit: series.unit, resolution: 0 };
+    const points: TrendPoint[] = series.t.map((t, i) => ({ t, y: series.value[i], unchecked: series.unchecked[i] }));
+    const base = asBadRequest(() => stableValue(points, input.window, input.tStar, spec, null, { ...options, includeResolution: false }));
+    const inputs: Record<string, DerivedInput> = {};
+    const warnings = [...base.warnings];
+    for (const symbol of derived.inputs) {
+      const channel = [...ctx.channels.values()].find((c) => c.symbol === symbol);
+      if (!channel) {
+        warnings.push(`${symbol} is itself a derived channel: its instruments are not carried into this budget`);
+        continue;
+      }
+      const inputSeries = await this.series.build(manager, ctx, input.runId, channel.id);
+      const inputPoints: TrendPoint[] = inputSeries.t.map((t, i) => ({ t, y: inputSeries.raw[i], unchecked: inputSeries.unchecked[i] }));
+      const chain = asBadRequest(() => compileChain(ctx.calibrations.get(channel.id)?.chain ?? null, channel.raw_unit));
+      const inputSpec: ChannelSpec = {
+        id: channel.id,
+        name: channel.name,
+        rawUnit: channel.raw_unit,
+        resolution: channel.resolution,
+        fullScale: channel.full_scale,
+        accuracy: channel.accuracy,
+      };
+      const at = asBadRequest(() =>
+        stableValue(inputPoints, input.window, input.tStar, inputSpec, chain, { ...options, includeResiduals: false, coverageFactor: undefined }),
+      );
+      const instrument = at.budget.components.filter((c) => c.name !== FIT_COMPONENT_NAME);
+      const u = Math.sqrt(instrument.reduce((sum, c) => sum + c.contribution * c.contribution, 0));
+      inputs[symbol] = { value: at.value, standardUncertainty: u, unit: at.unit };
+    }
+    const compiled = asBadRequest(() => compileExpression(derived.expression, Object.keys(inputs), derived.constants));
+    const propagated = asBadRequest(() => derivedUncertainty(compiled, inputs, { unit: series.unit }));
+    const fitLine = base.budget.components.find((c) => c.name === FIT_COMPONENT_NAME);
+    const lines: ComponentInput[] = [
+      ...(fitLine ? [{ ...fitLine, note: fitLine.note ?? undefined }] : []),
+      ...propagated.components.map((c) => ({
+        name: `${c.name} instruments`,
+        sourceId: `${ctx.symbols.get(c.name) ?? c.name}/instruments`,
+        value: c.value,
+        unit: c.unit,
+        distribution: c.distribution,
+        divisor: c.divisor,
+        sensitivity: c.sensitivity,
+        note: `${c.name} = ${formatNumber(inputs[c.name].value)} ${inputs[c.name].unit ?? ''} at t*: spec, resolution and calibration, u = ${formatNumber(c.standardUncertainty)}; c = ∂f/∂${c.name}`,
+      })),
+    ];
+    const budget = asBadRequest(() => combineBudget(base.value, series.unit, lines, { coverageFactor: options.coverageFactor }));
+    return { ...base, budget, expandedUncertainty: budget.expandedUncertainty, warnings };
   }
 
   private async computeBalance(manager: EntityManager, ctx: CampaignContext, state: CurrentState, raw: unknown, selfId: string | null): Promise<Computed> {
