@@ -1,5 +1,6 @@
 import type { DataLock } from '@dialsheet/common';
 import { ConflictException } from '@nestjs/common';
+import type { EntityManager } from 'typeorm';
 import type { RunEntity } from './run.entity';
 
 /** The release lock on a run's data, as the wire types carry it; null while the run is open. */
@@ -19,4 +20,28 @@ export function lockedMessage(run: Pick<RunEntity, 'name'>, lock: DataLock): str
 export function refuseIfLocked(run: Pick<RunEntity, 'name' | 'lockedReleaseId' | 'lockedReleaseNumber'>): void {
   const lock = runLock(run);
   if (lock) throw new ConflictException(lockedMessage(run, lock));
+}
+
+/**
+ * A calibration turns the raw readings of every run that reads the channel into engineering
+ * values, so it may not change while any of those runs is inside a release. Callers hold the
+ * campaign row lock (as signing does), so a release cannot be signed in between.
+ */
+export async function refuseIfChannelLocked(manager: EntityManager, channelId: string): Promise<void> {
+  const [locked] = (await manager.query(
+    `SELECT c.symbol, r.name, r.locked_release_number AS number
+       FROM channels c
+       JOIN sheet_channels sc ON sc.channel_id = c.id
+       JOIN sheets s ON s.id = sc.sheet_id
+       JOIN runs r ON r.id = s.run_id
+      WHERE c.id = $1 AND r.locked_release_id IS NOT NULL
+      ORDER BY r.locked_release_number, r.name
+      LIMIT 1`,
+    [channelId],
+  )) as Array<{ symbol: string; name: string; number: number }>;
+  if (locked) {
+    throw new ConflictException(
+      `Channel ${locked.symbol} is read in run “${locked.name}”, which is locked by release ${locked.number}: its calibration can no longer change; a correction needs a new release version`,
+    );
+  }
 }
