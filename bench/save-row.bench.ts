@@ -1,17 +1,28 @@
-// `npm run bench -- save-row`: how long saving one row of readings takes while 50 people save at
-// once, over real HTTP on loopback. In a throw-away Dialsheet, 50 sheets (one per client, as the
-// server locks the sheet row during a save) of six channels are open for the demo reader; each
-// client has its own keep-alive connection and PUTs successive rows of six readings
+// `npm run bench -- save-row`: how long a reader waits for a saved row while 50 readers enter
+// rows at once, over real HTTP on loopback. In a throw-away Dialsheet, 50 sheets (one per reader,
+// as the server locks the sheet row during a save) of six channels are open for the demo reader;
+// each reader has its own keep-alive connection and PUTs successive rows of six readings
 // (/api/sheets/:id/rows/:rowIndex, pass 1).
 //
-// Phases: one client alone (the unloaded cost of a save); then all 50 saving back to back with no
-// pause (the headline: every client always has a save in flight, so this is the worst sustained
-// load 50 people can make); then all 50 with a pause of 0.5–1.5 s between rows (still faster
-// than anyone reads six displays). Figures: latency p50/p95/p99/max per phase, saves per second,
-// errors; target p99 ≤ 50 ms with zero errors. Afterwards the database must hold every
-// acknowledged row exactly once, as typed, each reading with its audit entry (zero lost).
-// A profile follows: SQL statements per save (pg_stat_statements), CPU per save of the app, of
-// PostgreSQL and of this load generator, and how busy the app's connection pool was.
+// The load model (the headline): a reader saves a row after reading six displays off the video
+// and typing them, which takes seconds: each value means finding the display, reading it and
+// typing four to six keys and Enter. One row per second per reader is a deliberately fast upper
+// bound (six values a second is data-entry speed with no reading at all), so each reader here
+// presses Enter for the next row 0.5–1.5 s (uniformly, mean 1 s) after pressing it for the last
+// one: 50 readers offer about 50 saves/s. The entry screen queues a row while the previous one is
+// still being saved, so a reader's next save starts when it is due or when the previous answer
+// came, whichever is later, and its latency is counted from when it was due (a slow answer is
+// not hidden by the reader waiting for it). 60 s of it, as issue 7 asks, after 5 s at the same
+// pace that warm the app's connection pool and are not counted; the figure is the p99 of all the
+// saves of those 60 s, target ≤ 50 ms with zero errors.
+//
+// Beside it, printed but not the headline: one reader alone (the unloaded cost of a save, SQL
+// statements per save) and all 50 saving back to back with no pause, which measures throughput
+// (saves/s): with every client always waiting, latency there is clients ÷ throughput by
+// Little's law, not what a reader waits for. Afterwards the database must hold every
+// acknowledged row exactly once, as typed, each reading with its audit entry (zero lost). A
+// profile follows the throughput run: CPU per save of the app, of PostgreSQL and of this load
+// generator, and how busy the app's connection pool was.
 //
 // The database runs with fsync off (throw-away cluster), so commit waits no disk: the figures
 // are for the app and PostgreSQL's work, not a disk's flush latency.
@@ -27,11 +38,16 @@ import { makeTestVideo } from './lib/videos';
 const CLIENTS = 50;
 const SERIAL_SAVES = 150;
 const WARM_UP_MS = 3_000;
-const CLOSED_MS = 20_000;
-const PACED_MS = 15_000;
+const CLOSED_MS = 15_000;
+/** Issue 7: 50 readers saving rows for 60 s. */
+const PACED_MS = 60_000;
+const PACED_WARM_UP_MS = 5_000;
+/** One row per reader per second on average: a fast reader's upper bound (see the top of the file). */
 const PACE_MIN_MS = 500;
 const PACE_MAX_MS = 1_500;
 const P99_TARGET_MS = 50;
+/** Saves per second the readers offer: one row each per mean pause. */
+const OFFERED_PER_S = CLIENTS / ((PACE_MIN_MS + PACE_MAX_MS) / 2 / 1000);
 /** Rows at 0.1 s from 0 to 125 s: 1251 per sheet, more than any client reaches. */
 const SHEET = { startTime: 0, endTime: 125, interval: 0.1 };
 /** A tiny recording is enough: the rows need a processed video to exist, not to be watched. */
@@ -42,6 +58,10 @@ interface Outcome {
   row: number;
   ms: number;
   ok: boolean;
+  /** Paced rows: how long the row waited in the reader's queue behind the previous one (part of ms). */
+  queuedMs?: number;
+  /** Paced rows: when the row was due, in ms from the start of the phase. */
+  dueAt?: number;
 }
 
 /** The six values typed for a row: plausible, different from row to row, exact as text. */
@@ -111,11 +131,25 @@ class SaveClient {
     });
   }
 
-  /** Saves rows one after another until `untilMs` (performance.now()), pausing `pause()` ms between them. */
-  async loop(untilMs: number, out: Outcome[], pause?: () => number): Promise<void> {
-    while (performance.now() < untilMs && this.nextRow < this.rowCount) {
-      out.push(await this.save());
-      if (pause) await sleep(Math.min(pause(), Math.max(0, untilMs - performance.now())));
+  /** Saves rows back to back until `untilMs` (performance.now()). */
+  async loop(untilMs: number, out: Outcome[]): Promise<void> {
+    while (performance.now() < untilMs && this.nextRow < this.rowCount) out.push(await this.save());
+  }
+
+  /**
+   * A reader: the next row is due `pause()` ms after the last one was due; it is sent when due, or
+   * when the previous answer came if that is later (the entry screen's queue), and its latency is
+   * counted from when it was due. Rows due from `untilMs` on are not sent.
+   */
+  async paced(start: number, firstDue: number, untilMs: number, out: Outcome[], pause: () => number): Promise<void> {
+    let due = firstDue;
+    while (due < untilMs && this.nextRow < this.rowCount) {
+      const wait = due - performance.now();
+      if (wait > 0) await sleep(wait);
+      const late = Math.max(0, performance.now() - due);
+      const outcome = await this.save();
+      out.push({ ...outcome, ms: outcome.ms + late, queuedMs: late, dueAt: due - start });
+      due += pause();
     }
   }
 }
@@ -130,7 +164,7 @@ function summary(label: string, outcomes: Outcome[], seconds: number): string {
   );
 }
 
-runBenchmark('save-row', 5 * 60_000, async (scratch) => {
+runBenchmark('save-row', 6 * 60_000, async (scratch) => {
   const root = scratch.tempDir('save-row');
   const stack = await startStack(scratch, root, {
     worker: true,
@@ -186,7 +220,44 @@ runBenchmark('save-row', 5 * 60_000, async (scratch) => {
     console.log(`    ${(Number(q.calls) / SERIAL_SAVES).toFixed(1)}× per save, ${q.mean.toFixed(3)} ms each: ${q.query.slice(0, 110)}`);
   }
 
-  // 2. All clients back to back, no pause; the first seconds warm up and are not counted.
+  // 2. The headline: 50 readers at a fast reader's pace for 60 s, after PACED_WARM_UP_MS at the
+  // same pace that is not counted (like the throughput run's): until then the app's pool holds
+  // the one connection the lone client used, and each connection it opens for the readers is a
+  // new PostgreSQL process with cold caches. Those saves are still checked for errors and loss.
+  const pacedWarmUp: Outcome[] = [];
+  const paced: Outcome[] = [];
+  const pause = () => PACE_MIN_MS + Math.random() * (PACE_MAX_MS - PACE_MIN_MS);
+  const warmStart = performance.now();
+  await Promise.all(clients.map((c) => c.paced(warmStart, warmStart + Math.random() * PACE_MAX_MS, warmStart + PACED_WARM_UP_MS, pacedWarmUp, pause)));
+  const pacedCpuBefore = { app: cpuMsOf(stack.app.child.pid!) ?? 0, pg: treeCpuMs(postmaster) };
+  started = process.hrtime.bigint();
+  const pacedStart = performance.now();
+  const pacedUntil = pacedStart + PACED_MS;
+  // Each reader's first row is due at a random moment of a first pause: people do not press Enter in step.
+  await Promise.all(clients.map((c) => c.paced(pacedStart, pacedStart + Math.random() * PACE_MAX_MS, pacedUntil, paced, pause)));
+  const pacedSeconds = secondsSince(started);
+  const pacedCpu = {
+    app: ((cpuMsOf(stack.app.child.pid!) ?? 0) - pacedCpuBefore.app) / paced.length,
+    pg: (treeCpuMs(postmaster) - pacedCpuBefore.pg) / paced.length,
+  };
+  console.log(
+    summary(`${CLIENTS} readers, one row each every ${PACE_MIN_MS / 1000}–${PACE_MAX_MS / 1000} s (fast readers; latency from when the row was due)`, paced, pacedSeconds),
+  );
+  const answerMs = paced.map((o) => o.ms - (o.queuedMs ?? 0));
+  console.log(
+    `  the server's answer alone (send to reply, without the wait behind a reader's previous row): p50 ${percentile(answerMs, 50).toFixed(1)} ms, ` +
+      `p99 ${percentile(answerMs, 99).toFixed(1)} ms; rows that had to wait for the previous one: ${paced.filter((o) => (o.queuedMs ?? 0) > 1).length}`,
+  );
+  // Whether the slowest 1% came in one burst (a stall of the whole machine) or spread over the minute.
+  const slowest = [...paced].sort((a, b) => b.ms - a.ms).slice(0, Math.max(1, Math.ceil(paced.length / 100)));
+  const slowSeconds = [...new Set(slowest.map((o) => Math.floor((o.dueAt ?? 0) / 1000)))].sort((a, b) => a - b);
+  console.log(`  the slowest 1% (${slowest.length} saves, ≥ ${slowest[slowest.length - 1].ms.toFixed(0)} ms) were due in second(s) ${slowSeconds.join(', ')} of the run`);
+  console.log(`  CPU per save at this pace: app ${pacedCpu.app.toFixed(2)} ms, PostgreSQL ${pacedCpu.pg.toFixed(2)} ms (idle work such as the job queue's polling included)`);
+
+  // 3. Throughput: all clients back to back, no pause; the first seconds warm up and are not counted.
+  // Readers that finished early sat idle while the others caught up; a kept-alive connection the
+  // server is closing at that moment would fail the first request, so each starts on a fresh one.
+  for (const c of clients) c.agent.destroy();
   const warmUp: Outcome[] = [];
   const closed: Outcome[] = [];
   const pool: number[] = [];
@@ -225,10 +296,15 @@ runBenchmark('save-row', 5 * 60_000, async (scratch) => {
     pg: (treeCpuMs(postmaster) - cpuBefore.pg) / closed.length,
     client: (us.user + us.system) / 1000 / closed.length,
   };
-  console.log(summary(`${CLIENTS} clients, no pause`, closed, closedSeconds));
+  const closedRate = closed.length / closedSeconds;
+  console.log(summary(`throughput, ${CLIENTS} clients back to back (no reader works like this)`, closed, closedSeconds));
+  console.log(
+    `  by Little's law the mean wait there is clients ÷ throughput = ${CLIENTS} ÷ ${closedRate.toFixed(0)}/s ≈ ${((CLIENTS / closedRate) * 1000).toFixed(0)} ms: ` +
+      `a measure of capacity (${(closedRate / OFFERED_PER_S).toFixed(1)}× the ${OFFERED_PER_S} saves/s ${CLIENTS} fast readers offer), not of a reader's wait`,
+  );
   const { rows: waits } = await db.query<{ mean: number; max: number; calls: string }>(
     `SELECT mean_exec_time AS mean, max_exec_time AS max, calls::bigint AS calls FROM pg_stat_statements s JOIN pg_database d ON d.oid = s.dbid
-      WHERE d.datname = current_database() AND s.query ILIKE 'SELECT%FROM "sheets"%FOR UPDATE%' ORDER BY calls DESC LIMIT 1`,
+      WHERE d.datname = current_database() AND s.query ILIKE 'SELECT%FROM%sheets%FOR UPDATE%' ORDER BY calls DESC LIMIT 1`,
   );
   console.log(
     `  CPU per save: app ${cpu.app.toFixed(2)} ms, PostgreSQL ${cpu.pg.toFixed(2)} ms, this load generator ${cpu.client.toFixed(2)} ms ` +
@@ -240,17 +316,8 @@ runBenchmark('save-row', 5 * 60_000, async (scratch) => {
       (waits[0] ? `; the sheet-row lock query took ${waits[0].mean.toFixed(2)} ms on average, ${waits[0].max.toFixed(1)} ms at most` : ''),
   );
 
-  // 3. All clients with a typing pause between rows.
-  const paced: Outcome[] = [];
-  started = process.hrtime.bigint();
-  const pacedUntil = performance.now() + PACED_MS;
-  const pause = () => PACE_MIN_MS + Math.random() * (PACE_MAX_MS - PACE_MIN_MS);
-  // Each client starts at a random moment of the first pause, as people do not press Enter in step.
-  await Promise.all(clients.map(async (c) => (await sleep(Math.random() * PACE_MAX_MS), c.loop(pacedUntil, paced, pause))));
-  console.log(summary(`${CLIENTS} clients, ${PACE_MIN_MS / 1000}–${PACE_MAX_MS / 1000} s between rows`, paced, secondsSince(started)));
-
   // 4. Nothing lost: every acknowledged row is stored once, as typed, with its audit entries.
-  const all = [...primer, ...serial, ...warmUp, ...closed, ...paced];
+  const all = [...primer, ...serial, ...pacedWarmUp, ...paced, ...warmUp, ...closed];
   const saved = new Map<string, Outcome>();
   for (const o of all) if (o.ok) saved.set(`${o.sheet}:${o.row}`, o);
   const sheetIndex = new Map(sheets.map((s, i) => [s.id, i]));
@@ -295,9 +362,13 @@ runBenchmark('save-row', 5 * 60_000, async (scratch) => {
   }
 
   const closedMs = closed.map((o) => o.ms);
-  const p99 = percentile(closedMs, 99);
   const pacedMs = paced.map((o) => o.ms);
-  console.log(`p99 with ${CLIENTS} clients saving back to back: ${p99.toFixed(1)} ms (target ≤ ${P99_TARGET_MS}), errors ${errors}, lost ${lost}`);
+  const p99 = percentile(pacedMs, 99);
+  const pacedErrors = paced.filter((o) => !o.ok).length;
+  console.log(
+    `p99 with ${CLIENTS} readers at one row per second each for ${PACED_MS / 1000} s: ${p99.toFixed(1)} ms (target ≤ ${P99_TARGET_MS}), ` +
+      `errors ${pacedErrors}, lost ${lost}; throughput back to back ${closedRate.toFixed(0)} saves/s (p99 ${percentile(closedMs, 99).toFixed(1)} ms)`,
+  );
   return {
     name: 'save-row',
     value: round(p99, 1),
@@ -306,12 +377,18 @@ runBenchmark('save-row', 5 * 60_000, async (scratch) => {
     target: `<= ${P99_TARGET_MS}`,
     errors,
     lost,
-    count: closed.length,
-    p50: round(percentile(closedMs, 50), 1),
-    p95: round(percentile(closedMs, 95), 1),
-    saves_per_s: round(closed.length / closedSeconds, 0),
-    paced_p99: round(percentile(pacedMs, 99), 1),
+    count: paced.length,
+    p50: round(percentile(pacedMs, 50), 1),
+    p95: round(percentile(pacedMs, 95), 1),
+    max: round(Math.max(...pacedMs), 1),
+    answer_p99: round(percentile(answerMs, 99), 1),
+    pace: `${PACE_MIN_MS}-${PACE_MAX_MS} ms between rows per reader`,
+    saves_per_s: round(closedRate, 0),
+    back_to_back_p99: round(percentile(closedMs, 99), 1),
+    back_to_back_p50: round(percentile(closedMs, 50), 1),
     alone_p50: round(percentile(serial.map((o) => o.ms), 50), 1),
     statements_per_save: round(statementsPerSave, 1),
+    cpu_ms_per_save_app: round(cpu.app, 2),
+    cpu_ms_per_save_pg: round(cpu.pg, 2),
   };
 });

@@ -26,5 +26,12 @@ export function buildDataSourceOptions(databaseUrl: string): DataSourceOptions {
     connectTimeoutMS: 5000,
     // Idle connections that the server drops raise pool errors; log them instead of crashing.
     poolErrorHandler: (error: unknown) => logger.warn(`PostgreSQL pool error: ${String(error)}`),
+    // pg's own defaults are 10 connections, each closed after 10 s idle. Readers save in bursts,
+    // so at one row/s per reader the pool kept closing connections and opening them again, and
+    // each new one is a new PostgreSQL process that loads its catalog caches and prepares the
+    // hot statements anew: tens of ms that landed in the save p99 (bench/save-row.bench.ts).
+    // Ten busy connections were enough for 50 readers saving back to back on 2 cores.
+    poolSize: 10,
+    extra: { idleTimeoutMillis: 5 * 60_000 },
   };
 }

@@ -1,7 +1,7 @@
 import type { AuditAction, AuditEntry, Page } from '@dialsheet/common';
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { EntityManager, Repository, type QueryDeepPartialEntity } from 'typeorm';
+import { EntityManager, Repository } from 'typeorm';
 import type { AuthUser } from '../../core/auth-user';
 import { CampaignAccessService } from '../campaigns/campaign-access.service';
 import { AuditEntityType } from './audit-actions';
@@ -38,16 +38,35 @@ export class AuditService {
   /** Several rows in one statement (a saved row of readings), in the order given. */
   async recordMany(manager: EntityManager, entries: readonly AuditRecord[]): Promise<void> {
     if (entries.length === 0) return;
-    const rows = entries.map((entry) =>
-      manager.create(AuditEntryEntity, {
-        ...entry,
-        before: entry.before ?? null,
-        after: entry.after ?? null,
-        reason: entry.reason?.trim() || null,
-      }),
-    );
-    // TypeORM's partial type cannot express free-form jsonb values; the entity itself is complete.
-    await manager.insert(AuditEntryEntity, rows as QueryDeepPartialEntity<AuditEntryEntity>[]);
+    const insert = this.insertStatement(entries, 1);
+    await manager.query(insert.sql, [insert.rows]);
+  }
+
+  /**
+   * The INSERT of `entries` as SQL taking every row from the one jsonb parameter `$param`, so a
+   * caller can put it in a WITH clause of its own statement and save a round trip (a saved row of
+   * readings and its trail go to PostgreSQL as one statement). Rows get their seq in the given
+   * order: the function scan yields the array's elements in order and the insert takes them as they
+   * come (an ORDER BY would only add a sort node to every save).
+   */
+  insertStatement(entries: readonly AuditRecord[], param: number): { sql: string; rows: string } {
+    const rows = entries.map((entry) => ({
+      campaign_id: entry.campaignId,
+      actor_id: entry.actorId,
+      entity_type: entry.entityType,
+      entity_id: entry.entityId,
+      action: entry.action,
+      before: entry.before ?? null,
+      after: entry.after ?? null,
+      reason: entry.reason?.trim() || null,
+    }));
+    return {
+      sql: `INSERT INTO audit_entries (campaign_id, actor_id, entity_type, entity_id, action, before, after, reason)
+            SELECT campaign_id, actor_id, entity_type, entity_id, action, before, after, reason
+              FROM jsonb_to_recordset($${param}::jsonb)
+                   AS x(campaign_id uuid, actor_id uuid, entity_type text, entity_id uuid, action text, before jsonb, after jsonb, reason text)`,
+      rows: JSON.stringify(rows),
+    };
   }
 
   async list(user: AuthUser, campaignId: string, query: AuditQueryDto): Promise<Page<AuditEntry>> {

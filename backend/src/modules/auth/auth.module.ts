@@ -12,7 +12,7 @@ import { AuthService } from './auth.service';
 import { JwtStrategy } from './jwt.strategy';
 import { PasswordResetEntity } from './password-reset.entity';
 import { RevokedTokenEntity } from './revoked-token.entity';
-import { TokenService } from './token.service';
+import { jwtKey, TokenService } from './token.service';
 
 @Module({
   imports: [
@@ -20,7 +20,7 @@ import { TokenService } from './token.service';
     JwtModule.registerAsync({
       inject: [AppConfig],
       useFactory: (config: AppConfig) => ({
-        secret: config.jwtSecret,
+        secret: jwtKey(config),
         signOptions: { algorithm: 'HS256' },
         verifyOptions: { algorithms: ['HS256'] },
       }),

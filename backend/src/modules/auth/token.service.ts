@@ -1,7 +1,7 @@
 import type { LoginResponse } from '@dialsheet/common';
 import { Injectable } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
-import { randomUUID } from 'node:crypto';
+import { createSecretKey, randomUUID, type KeyObject } from 'node:crypto';
 import { AppConfig } from '../../config/app-config';
 import type { UserEntity } from '../users/user.entity';
 import { toUser } from '../users/user.mapper';
@@ -21,4 +21,20 @@ export class TokenService {
     );
     return { accessToken, expiresIn: this.config.jwtExpiresIn, user: toUser(user) };
   }
+}
+
+const keys = new WeakMap<AppConfig, KeyObject>();
+
+/**
+ * The HS256 key as a KeyObject, made once per configuration. jsonwebtoken turns a string secret
+ * into a key on every sign and verify, after first failing to read it as a PEM key (an exception
+ * each time); the bytes are the same (UTF-8 of the secret), so tokens stay valid either way.
+ */
+export function jwtKey(config: AppConfig): KeyObject {
+  let key = keys.get(config);
+  if (!key) {
+    key = createSecretKey(Buffer.from(config.jwtSecret, 'utf8'));
+    keys.set(config, key);
+  }
+  return key;
 }

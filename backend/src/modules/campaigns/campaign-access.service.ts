@@ -50,7 +50,21 @@ export class CampaignAccessService {
     });
     if (!campaign) throw new NotFoundException(CAMPAIGN_NOT_FOUND);
     const member = await members.findOneBy({ campaignId, userId: user.id });
-    if (!member) throw new NotFoundException(CAMPAIGN_NOT_FOUND);
+    return CampaignAccessService.decide(campaign, member, roles);
+  }
+
+  /**
+   * The decision itself, for a hot path that reads the campaign and the caller's membership in
+   * its own statement (the save route). `notFound` is the message a non-member gets, e.g. the
+   * sheet's own "not found" when the caller asked for a sheet.
+   */
+  static decide(
+    campaign: CampaignEntity | null,
+    member: CampaignMemberEntity | null,
+    roles: readonly CampaignRole[] = [],
+    notFound = CAMPAIGN_NOT_FOUND,
+  ): CampaignAccess {
+    if (!campaign || !member) throw new NotFoundException(notFound);
     if (roles.length > 0 && !roles.some((r) => member.roles.includes(r))) {
       const needed = roles.map((r) => CAMPAIGN_ROLE_LABELS[r]).join(' or ');
       throw new ForbiddenException(`This needs the ${needed} role in this campaign`);

@@ -12,18 +12,23 @@ import {
 import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
-import { DataSource, EntityManager, In } from 'typeorm';
+import { randomUUID } from 'node:crypto';
+import { DataSource, EntityManager, In, type EntityMetadata } from 'typeorm';
+import type { ColumnMetadata } from 'typeorm/metadata/ColumnMetadata';
 import type { AuthUser } from '../../core/auth-user';
+import { queryPrepared } from '../../database/data-source-prepared';
 import { AuditService, type AuditRecord } from '../audit/audit.service';
-import { CampaignAccessService, type CampaignAccess } from '../campaigns/campaign-access.service';
+import type { CampaignAccess } from '../campaigns/campaign-access.service';
+import { CampaignMemberEntity } from '../campaigns/campaign-member.entity';
+import { CampaignEntity } from '../campaigns/campaign.entity';
 import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
 import { ChannelEntity } from '../channels/channel.entity';
 import { refuseIfLocked } from '../runs/run-lock';
 import { RunEntity } from '../runs/run.entity';
 import { UserEntity } from '../users/user.entity';
 import { sheetRowCount, sheetRows } from '../sheets/sheet-rules';
-import { SheetChannelEntity } from '../sheets/sheet-channel.entity';
 import { SheetEntity } from '../sheets/sheet.entity';
+import { CampaignAccessService } from '../campaigns/campaign-access.service';
 import { SHEET_NOT_FOUND } from '../sheets/sheets.service';
 import { ResolveCellDto } from './dto/resolve-cell.dto';
 import { SaveRowDto } from './dto/save-row.dto';
@@ -44,13 +49,16 @@ interface SheetContext {
   access: CampaignAccess;
   channels: ChannelEntity[];
   rowCount: number;
+  /** For a save: the row's stored entries of that pass, on the sheet's channels. */
+  stored: ReadingEntity[];
 }
 
 @Injectable()
 export class ReadingsService {
+  private statements?: LoadStatements;
+
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
-    private readonly access: CampaignAccessService,
     private readonly audit: AuditService,
   ) {}
 
@@ -63,7 +71,7 @@ export class ReadingsService {
       throw new BadRequestException(`rowIndex in the body (${dto.rowIndex}) must equal the row in the path (${rowIndex})`);
     }
     return this.dataSource.transaction(async (manager) => {
-      const ctx = await this.load(user, sheetId, manager, true);
+      const ctx = await this.load(user, sheetId, manager, true, { rowIndex, pass: dto.pass });
       const { sheet, channels, rowCount } = ctx;
       if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
       refuseIfLocked(ctx.run);
@@ -88,11 +96,9 @@ export class ReadingsService {
       });
       if (problems.length > 0) throw new BadRequestException(problems);
 
-      const stored = await manager.find(ReadingEntity, {
-        where: { sheetId: sheet.id, rowIndex, pass: dto.pass, channelId: In(dto.readings.map((r) => r.channelId)) },
-        lock: { mode: 'pessimistic_write' },
-      });
-      const storedBy = new Map(stored.map((r) => [r.channelId, r]));
+      // Read by load() after the sheet row was locked; every write of a reading happens here under
+      // that lock, so these are current and no other save of this sheet can change them before commit.
+      const storedBy = new Map(ctx.stored.map((r) => [r.channelId, r]));
       const decisions: SaveDecision[] = dto.readings.map((input) => decideSave(storedBy.get(input.channelId) ?? null, input));
       // A finished pass is the record the other pass was compared with: a resend of what is
       // stored still succeeds (a retry whose answer was lost), but nothing in it changes now.
@@ -111,8 +117,8 @@ export class ReadingsService {
         });
       }
 
-      // First entries (the usual case) go in as one insert with one audit insert, so a row of
-      // six readings costs two statements rather than twelve; changes are rarer and go one by one.
+      // First entries (the usual case) go in with their audit rows as one statement, so a row of
+      // six readings costs one round trip rather than twelve; changes are rarer and go one by one.
       const out: (Reading | null)[] = dto.readings.map(() => null);
       const inserts: { index: number; entity: ReadingEntity }[] = [];
       const audits: AuditRecord[] = [];
@@ -141,22 +147,51 @@ export class ReadingsService {
         } else {
           inserts.push({
             index: i,
-            entity: manager.create(ReadingEntity, { sheetId: sheet.id, rowIndex, channelId: input.channelId, pass: dto.pass, version: 1, ...fields }),
+            // The id is made here so the audit rows, written in the same statement, can name it.
+            entity: manager.create(ReadingEntity, { id: randomUUID(), sheetId: sheet.id, rowIndex, channelId: input.channelId, pass: dto.pass, version: 1, ...fields }),
           });
         }
       }
       if (inserts.length > 0) {
-        // insert() fills the generated id and timestamps into the entities it was given.
-        await manager.insert(
-          ReadingEntity,
-          inserts.map((x) => x.entity),
+        for (const { entity } of inserts) audits.push(this.auditOf(user, sheet, entity, 'create', null));
+        const trail = this.audit.insertStatement(audits, 2);
+        const rows = inserts.map(({ entity: e }) => ({
+          id: e.id,
+          sheet_id: e.sheetId,
+          row_index: e.rowIndex,
+          channel_id: e.channelId,
+          pass: e.pass,
+          raw_text: e.rawText,
+          value: e.value,
+          canonical: e.canonical,
+          flag: e.flag,
+          frame_time: e.frameTime,
+          entered_by: e.enteredBy,
+          version: e.version,
+        }));
+        // JSON numbers reach float8 exactly: JavaScript writes the shortest text that reads back
+        // as the same double, and PostgreSQL reads it with the same round-to-nearest rule.
+        const created = await queryPrepared<Array<{ id: string; created_at: Date; updated_at: Date }>>(
+          manager,
+          'readings-insert-row',
+          `WITH trail AS (${trail.sql})
+           INSERT INTO readings (id, sheet_id, row_index, channel_id, pass, raw_text, value, canonical, flag, frame_time, entered_by, version)
+           SELECT * FROM jsonb_to_recordset($1::jsonb) AS x(id uuid, sheet_id uuid, row_index integer, channel_id uuid, pass smallint, raw_text text,
+                  value float8, canonical text, flag text, frame_time float8, entered_by uuid, version integer)
+           RETURNING id, created_at, updated_at`,
+          [JSON.stringify(rows), trail.rows],
         );
+        const times = new Map(created.map((r) => [r.id, r]));
         for (const { index, entity } of inserts) {
-          audits.push(this.auditOf(user, sheet, entity, 'create', null));
+          const row = times.get(entity.id);
+          if (!row) throw new Error(`reading ${entity.id} was inserted but not returned`);
+          entity.createdAt = row.created_at;
+          entity.updatedAt = row.updated_at;
           out[index] = toReading(entity, byId.get(entity.channelId));
         }
+      } else {
+        await this.audit.recordMany(manager, audits);
       }
-      await this.audit.recordMany(manager, audits);
       return { readings: out.filter((r): r is Reading => r !== null) };
     });
   }
@@ -357,25 +392,132 @@ export class ReadingsService {
   /**
    * A sheet outside the caller's campaigns is "not found", like an unknown id. For saves the sheet
    * row is locked (not the campaign) so entry on different sheets never queues behind each other.
+   *
+   * Two statements, whatever the sheet: the sheet (locked first when asked), then its run,
+   * campaign, the caller's membership, the channels in entry order and, for a save, the stored
+   * entries of that row. The second statement starts after the lock is held, so under READ
+   * COMMITTED it sees everything committed by the save that held the lock before (one statement
+   * that waited for the lock would read the other tables as they were before the wait).
    */
-  private async load(user: AuthUser, sheetId: string, manager: EntityManager, lock: boolean): Promise<SheetContext> {
+  private async load(user: AuthUser, sheetId: string, manager: EntityManager, lock: boolean, cell?: { rowIndex: number; pass: ReadingPass }): Promise<SheetContext> {
     if (!isUUID(sheetId)) throw new NotFoundException(SHEET_NOT_FOUND);
-    const sheet = await manager.findOne(SheetEntity, { where: { id: sheetId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    const sql = this.sql();
+    const [sheetRow] = lock
+      ? await queryPrepared<RawRow[]>(manager, 'readings-load-sheet-for-update', sql.sheetForUpdate, [sheetId])
+      : await queryPrepared<RawRow[]>(manager, 'readings-load-sheet', sql.sheet, [sheetId]);
+    const sheet = sheetRow ? sql.sheetColumns.from(sheetRow) : null;
     if (!sheet) throw new NotFoundException(SHEET_NOT_FOUND);
-    let access: CampaignAccess;
-    try {
-      access = await this.access.require(user, sheet.campaignId, [], { manager });
-    } catch (error) {
-      if (error instanceof NotFoundException) throw new NotFoundException(SHEET_NOT_FOUND);
-      throw error;
-    }
-    const links = await manager.find(SheetChannelEntity, { where: { sheetId: sheet.id }, order: { position: 'ASC' } });
-    const found = await manager.find(ChannelEntity, { where: { id: In(links.map((l) => l.channelId)) } });
-    const byId = new Map(found.map((c) => [c.id, c]));
-    const channels = links.flatMap((l) => (byId.has(l.channelId) ? [byId.get(l.channelId) as ChannelEntity] : []));
-    const run = await manager.findOneBy(RunEntity, { id: sheet.runId });
+    const rows = cell
+      ? await queryPrepared<RawRow[]>(manager, 'readings-load-context-with-cell', sql.contextWithCell, [
+          sheet.runId,
+          sheet.campaignId,
+          user.id,
+          sheet.id,
+          cell.rowIndex,
+          cell.pass,
+        ])
+      : await queryPrepared<RawRow[]>(manager, 'readings-load-context', sql.context, [sheet.runId, sheet.campaignId, user.id, sheet.id]);
+    // Entry order is sorted here: six rows, where an ORDER BY would cost PostgreSQL a sort node.
+    rows.sort((a, b) => ((a.sc_position as number | null) ?? 0) - ((b.sc_position as number | null) ?? 0));
+    const run = rows.length > 0 ? sql.runColumns.from(rows[0]) : null;
     if (!run) throw new NotFoundException(SHEET_NOT_FOUND);
-    return { sheet, run, access, channels, rowCount: sheetRowCount(sheet.startTime, sheet.endTime, sheet.interval) };
+    const campaign = sql.campaignColumns.from(rows[0]);
+    const member = sql.memberColumns.from(rows[0]);
+    // The access service's own decision, on the membership read here in the same statement as the
+    // rest (never cached across requests: a second API process would not see a removal): any
+    // member; a non-member, like an unknown campaign, learns nothing and gets the sheet's "not found".
+    const access = CampaignAccessService.decide(campaign, member, [], SHEET_NOT_FOUND);
+    const channels: ChannelEntity[] = [];
+    const stored: ReadingEntity[] = [];
+    for (const row of rows) {
+      const channel = sql.channelColumns.from(row);
+      if (channel) channels.push(channel);
+      const reading = cell ? sql.readingColumns.from(row) : null;
+      if (reading) stored.push(reading);
+    }
+    return { sheet, run, access, channels, rowCount: sheetRowCount(sheet.startTime, sheet.endTime, sheet.interval), stored };
+  }
+
+  /** The statements of `load`, written once per process from the entities' column metadata. */
+  private sql(): LoadStatements {
+    if (this.statements) return this.statements;
+    const ds = this.dataSource;
+    const sheetColumns = new RawColumns(ds, SheetEntity, 's');
+    const runColumns = new RawColumns(ds, RunEntity, 'r');
+    const campaignColumns = new RawColumns(ds, CampaignEntity, 'c');
+    const memberColumns = new RawColumns(ds, CampaignMemberEntity, 'm');
+    const channelColumns = new RawColumns(ds, ChannelEntity, 'ch');
+    const readingColumns = new RawColumns(ds, ReadingEntity, 'rd');
+    const sheet = `SELECT ${sheetColumns.select} FROM sheets s WHERE s.id = $1`;
+    const context = (withCell: boolean) =>
+      `SELECT ${[runColumns, campaignColumns, memberColumns, channelColumns, ...(withCell ? [readingColumns] : [])].map((c) => c.select).join(', ')}, sc.position AS sc_position
+         FROM runs r
+         JOIN campaigns c ON c.id = $2
+         LEFT JOIN campaign_members m ON m.campaign_id = c.id AND m.user_id = $3
+         LEFT JOIN sheet_channels sc ON sc.sheet_id = $4
+         LEFT JOIN channels ch ON ch.id = sc.channel_id
+         ${withCell ? 'LEFT JOIN readings rd ON rd.sheet_id = sc.sheet_id AND rd.channel_id = sc.channel_id AND rd.row_index = $5 AND rd.pass = $6' : ''}
+        WHERE r.id = $1`;
+    this.statements = {
+      sheet,
+      sheetForUpdate: `${sheet} FOR UPDATE`,
+      context: context(false),
+      contextWithCell: context(true),
+      sheetColumns,
+      runColumns,
+      campaignColumns,
+      memberColumns,
+      channelColumns,
+      readingColumns,
+    };
+    return this.statements;
+  }
+}
+
+type RawRow = Record<string, unknown>;
+
+interface LoadStatements {
+  sheet: string;
+  sheetForUpdate: string;
+  context: string;
+  contextWithCell: string;
+  sheetColumns: RawColumns<SheetEntity>;
+  runColumns: RawColumns<RunEntity>;
+  campaignColumns: RawColumns<CampaignEntity>;
+  memberColumns: RawColumns<CampaignMemberEntity>;
+  channelColumns: RawColumns<ChannelEntity>;
+  readingColumns: RawColumns<ReadingEntity>;
+}
+
+/**
+ * One entity's columns in hand-written SQL (`alias.column AS "alias_column"`) and the way back to
+ * an entity, converting each value as TypeORM's own find() does. Hand-written because the save
+ * path joins five tables in one statement, and building and hydrating it through the query
+ * builder cost more CPU than the database spent on it.
+ */
+class RawColumns<T extends object> {
+  readonly select: string;
+  private readonly metadata: EntityMetadata;
+  private readonly keys: Array<{ column: ColumnMetadata; key: string }>;
+  /** Null in this column means the outer join found no row. */
+  private readonly presence: string;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    target: new () => T,
+    alias: string,
+  ) {
+    this.metadata = dataSource.getMetadata(target);
+    this.keys = this.metadata.columns.map((column) => ({ column, key: `${alias}_${column.databaseName}` }));
+    this.select = this.keys.map(({ column, key }) => `${alias}."${column.databaseName}" AS "${key}"`).join(', ');
+    this.presence = `${alias}_${this.metadata.primaryColumns[0].databaseName}`;
+  }
+
+  from(row: RawRow): T | null {
+    if (row[this.presence] === null || row[this.presence] === undefined) return null;
+    const entity = this.metadata.create(undefined, { fromDeserializer: true }) as Record<string, unknown>;
+    for (const { column, key } of this.keys) entity[column.propertyName] = this.dataSource.driver.prepareHydratedValue(row[key], column);
+    return entity as T;
   }
 }
 
