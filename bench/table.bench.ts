@@ -194,6 +194,11 @@ runBenchmark('table', 6 * 60_000, async (scratch) => {
     console.log(
       `  slowest answers: ${slowest.map((r) => `${r.path.replace(sheet.id, ':sheetId')} ${r.start.toFixed(0)}→${r.end.toFixed(0)} ms ${(r.bytes / 1e6).toFixed(1)} MB`).join('; ')}`,
     );
+    // Where the time before the first request goes (the app's code loading and signing in).
+    const inOrder = [...load.requests].sort((a, b) => a.start - b.start);
+    console.log(
+      `  every answer in order: ${inOrder.map((r) => `${r.path.replace(sheet.id, ':sheetId').replace(/[0-9a-f-]{36}/g, ':id')} ${r.start.toFixed(0)}→${r.end.toFixed(0)}`).join('; ')}`,
+    );
   }
   const times = loads.map((l) => l.markMs);
   const med = median(times);
