@@ -23,6 +23,9 @@ import { RunsModule } from './modules/runs/runs.module';
 import { ReadingsModule } from './modules/readings/readings.module';
 import { SheetsModule } from './modules/sheets/sheets.module';
 import { UsersModule } from './modules/users/users.module';
+import { ReleasesModule } from './modules/releases/releases.module';
+import { ExportsModule } from './modules/exports/exports.module';
+import { NotificationsModule } from './modules/notifications/notifications.module';
 
 /** Everything under /api, which must never fall back to the web app's index.html. */
 export const API_PATHS = /^\/api(\/|$)/;
@@ -58,6 +61,9 @@ export class AppModule {
       CalibrationsModule,
       AnalysesModule,
       AnalysisRecomputeModule,
+      ReleasesModule,
+      ExportsModule,
+      NotificationsModule,
     ];
     if (existsSync(join(config.frontendDir, 'index.html'))) {
       imports.push(

@@ -197,7 +197,18 @@ describe('mismatches and resolutions', () => {
   it('released data is locked: saves, resolutions, sheet changes and run changes are refused with 409 naming the release', async () => {
     const sheet = await openSheet('Locked by a release');
     await enter(sheet, 1, f.tokens.reader, [['21.0', '1.1']]);
-    const releaseId = '3f6c2a1e-8b4d-4c2a-9e1f-5a7b9c0d1e2f';
+    // A published release row as signing leaves it (the release routes have their own tests);
+    // the lock must name a release that exists.
+    const [{ lead }] = (await t.dataSource.query(
+      `SELECT user_id AS lead FROM campaign_members WHERE campaign_id = $1 AND 'lead' = ANY(roles) LIMIT 1`,
+      [f.campaign.id],
+    )) as Array<{ lead: string }>;
+    const [{ id: releaseId }] = (await t.dataSource.query(
+      `INSERT INTO releases (campaign_id, number, status, title, run_ids, requested_by, signed_by, signed_at, content_hash, reading_count, snapshot_key)
+       VALUES ($1, 4, 'published', 'Lock test', ARRAY[$2]::uuid[], $3, $3, now(), repeat('a', 64), 0, 'releases/lock-test.jsonl')
+       RETURNING id`,
+      [f.campaign.id, run.id, lead],
+    )) as Array<{ id: string }>;
     await t.dataSource.query('UPDATE runs SET locked_release_id = $1, locked_release_number = 4 WHERE id = $2', [releaseId, run.id]);
     try {
       const locked = /locked by release 4/;

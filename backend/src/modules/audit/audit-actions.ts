@@ -16,4 +16,4 @@ const ACTIONS: Record<AuditAction, true> = {
 export const AUDIT_ACTIONS = Object.keys(ACTIONS) as AuditAction[];
 
 /** What an audit row is about. */
-export type AuditEntityType = 'campaign' | 'member' | 'invitation' | 'run' | 'recording' | 'channel' | 'display-region' | 'sheet' | 'reading' | 'resolution' | 'calibration' | 'derived-channel' | 'stability-rule' | 'analysis';
+export type AuditEntityType = 'campaign' | 'member' | 'invitation' | 'run' | 'recording' | 'channel' | 'display-region' | 'sheet' | 'reading' | 'resolution' | 'calibration' | 'derived-channel' | 'stability-rule' | 'analysis' | 'release';
