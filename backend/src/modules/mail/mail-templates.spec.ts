@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { escapeHtml, invitationMail, passwordResetMail, sheetAssignmentMail } from './mail-templates';
+import { escapeHtml, invitationMail, mismatchesWaitingMail, passFinishedMail, passwordResetMail, releasePublishedMail, sheetAssignmentMail } from './mail-templates';
 
 const appUrl = 'http://127.0.0.1:4321';
 
@@ -83,5 +83,49 @@ describe('sheetAssignmentMail', () => {
     expect(mail.text).toContain('blind second pass');
     expect(mail.html).toContain('Lee &#60;lead&#62;');
     expect(mail.html).not.toContain('<lead>');
+  });
+});
+
+describe('notification mails of the sign-off part', () => {
+  it('tells of a finished pass with a link to the sheet', () => {
+    const mail = passFinishedMail({
+      appUrl,
+      campaignId: 'c1',
+      sheetId: 's1',
+      name: 'Lena',
+      finisherName: 'Pat <reader>',
+      pass: 1,
+      sheetName: 'Soak',
+      runName: 'Run 1',
+      campaignName: 'Core',
+    });
+    expect(mail.subject).toBe('Pass 1 of sheet "Soak" is finished');
+    expect(mail.text).toContain(`${appUrl}/campaigns/c1/sheets/s1`);
+    expect(mail.html).toContain('Pat &#60;reader&#62;');
+  });
+
+  it('counts the waiting mismatches in the subject (singular and plural)', () => {
+    const base = { appUrl, campaignId: 'c1', sheetId: 's1', name: 'Sam', sheetName: 'Soak', runName: 'Run 1', campaignName: 'Core' };
+    expect(mismatchesWaitingMail({ ...base, count: 1 }).subject).toBe('1 mismatch waits for resolution on sheet "Soak"');
+    expect(mismatchesWaitingMail({ ...base, count: 3 }).subject).toBe('3 mismatches wait for resolution on sheet "Soak"');
+  });
+
+  it('names the release number, the runs and the content hash', () => {
+    const mail = releasePublishedMail({
+      appUrl,
+      campaignId: 'c1',
+      releaseId: 'r9',
+      name: 'Ann',
+      number: 2,
+      title: 'Soak runs',
+      signerName: 'Lena',
+      campaignName: 'Core',
+      runNames: ['Run 1', 'Run 2'],
+      contentHash: 'f'.repeat(64),
+    });
+    expect(mail.subject).toBe('Release 2 of "Core" is published: Soak runs');
+    expect(mail.text).toContain('Runs: Run 1, Run 2.');
+    expect(mail.text).toContain(`Content SHA-256: ${'f'.repeat(64)}`);
+    expect(mail.text).toContain(`${appUrl}/campaigns/c1/releases/r9`);
   });
 });

@@ -149,3 +149,133 @@ export function sheetAssignmentMail(p: SheetAssignmentMailParams): RenderedMail 
   );
   return { subject, text, html };
 }
+
+// ── Notifications of the sign-off part ──────────────────────────────────────────────────────
+
+export function runLink(appUrl: string, campaignId: string, runId: string): string {
+  return `${appUrl}/campaigns/${encodeURIComponent(campaignId)}/runs/${encodeURIComponent(runId)}`;
+}
+
+export function releaseLink(appUrl: string, campaignId: string, releaseId: string): string {
+  return `${appUrl}/campaigns/${encodeURIComponent(campaignId)}/releases/${encodeURIComponent(releaseId)}`;
+}
+
+const SETTINGS_FOOTER = 'You can switch this kind of message off under your notification settings.';
+
+export interface PassFinishedMailParams {
+  appUrl: string;
+  campaignId: string;
+  sheetId: string;
+  name: string;
+  finisherName: string;
+  pass: 1 | 2;
+  sheetName: string;
+  runName: string;
+  campaignName: string;
+}
+
+export function passFinishedMail(p: PassFinishedMailParams): RenderedMail {
+  const link = sheetLink(p.appUrl, p.campaignId, p.sheetId);
+  const what = p.pass === 1 ? 'the first pass' : 'the blind second pass';
+  const subject = `Pass ${p.pass} of sheet "${p.sheetName}" is finished`;
+  const text = [
+    `Hello ${p.name},`,
+    '',
+    `${p.finisherName} finished ${what} of sheet "${p.sheetName}" (run "${p.runName}", campaign "${p.campaignName}").`,
+    '',
+    'Open the sheet here:',
+    link,
+    '',
+    SETTINGS_FOOTER,
+  ].join('\n');
+  const html = layout(
+    subject,
+    [
+      `Hello ${escapeHtml(p.name)},`,
+      `${escapeHtml(p.finisherName)} finished ${what} of sheet <strong>${escapeHtml(p.sheetName)}</strong> (run ${escapeHtml(p.runName)}, campaign ${escapeHtml(p.campaignName)}).`,
+    ],
+    { href: link, label: 'Open the sheet' },
+    SETTINGS_FOOTER,
+  );
+  return { subject, text, html };
+}
+
+export interface MismatchesWaitingMailParams {
+  appUrl: string;
+  campaignId: string;
+  sheetId: string;
+  name: string;
+  count: number;
+  sheetName: string;
+  runName: string;
+  campaignName: string;
+}
+
+export function mismatchesWaitingMail(p: MismatchesWaitingMailParams): RenderedMail {
+  const link = sheetLink(p.appUrl, p.campaignId, p.sheetId);
+  const cells = p.count === 1 ? '1 mismatch waits' : `${p.count} mismatches wait`;
+  const subject = `${cells} for resolution on sheet "${p.sheetName}"`;
+  const text = [
+    `Hello ${p.name},`,
+    '',
+    `Both passes of sheet "${p.sheetName}" (run "${p.runName}", campaign "${p.campaignName}") are in: ${cells} to be resolved against the frame.`,
+    '',
+    'Open the sheet here:',
+    link,
+    '',
+    SETTINGS_FOOTER,
+  ].join('\n');
+  const html = layout(
+    'Mismatches to resolve',
+    [
+      `Hello ${escapeHtml(p.name)},`,
+      `Both passes of sheet <strong>${escapeHtml(p.sheetName)}</strong> (run ${escapeHtml(p.runName)}, campaign ${escapeHtml(p.campaignName)}) are in: ${escapeHtml(cells)} to be resolved against the frame.`,
+    ],
+    { href: link, label: 'Resolve the mismatches' },
+    SETTINGS_FOOTER,
+  );
+  return { subject, text, html };
+}
+
+export interface ReleasePublishedMailParams {
+  appUrl: string;
+  campaignId: string;
+  releaseId: string;
+  name: string;
+  number: number;
+  title: string;
+  signerName: string;
+  campaignName: string;
+  runNames: string[];
+  contentHash: string;
+}
+
+export function releasePublishedMail(p: ReleasePublishedMailParams): RenderedMail {
+  const link = releaseLink(p.appUrl, p.campaignId, p.releaseId);
+  const subject = `Release ${p.number} of "${p.campaignName}" is published: ${p.title}`;
+  const runs = p.runNames.join(', ');
+  const text = [
+    `Hello ${p.name},`,
+    '',
+    `${p.signerName} signed release ${p.number} "${p.title}" of the campaign "${p.campaignName}".`,
+    `Runs: ${runs}. Their data is now locked; a change needs a new release.`,
+    `Content SHA-256: ${p.contentHash}`,
+    '',
+    'Open the release here:',
+    link,
+    '',
+    SETTINGS_FOOTER,
+  ].join('\n');
+  const html = layout(
+    `Release ${p.number} is published`,
+    [
+      `Hello ${escapeHtml(p.name)},`,
+      `${escapeHtml(p.signerName)} signed release ${p.number} <strong>${escapeHtml(p.title)}</strong> of the campaign ${escapeHtml(p.campaignName)}.`,
+      `Runs: ${escapeHtml(runs)}. Their data is now locked; a change needs a new release.`,
+      `Content SHA-256: <code>${escapeHtml(p.contentHash)}</code>`,
+    ],
+    { href: link, label: 'Open the release' },
+    SETTINGS_FOOTER,
+  );
+  return { subject, text, html };
+}

@@ -1,7 +1,18 @@
 import type { CampaignRole } from '@dialsheet/common';
 import { Injectable } from '@nestjs/common';
 import { AppConfig } from '../../config/app-config';
-import { invitationMail, passwordResetMail, sheetAssignmentMail, type SheetAssignmentMailParams } from './mail-templates';
+import {
+  invitationMail,
+  mismatchesWaitingMail,
+  passFinishedMail,
+  passwordResetMail,
+  releasePublishedMail,
+  sheetAssignmentMail,
+  type MismatchesWaitingMailParams,
+  type PassFinishedMailParams,
+  type ReleasePublishedMailParams,
+  type SheetAssignmentMailParams,
+} from './mail-templates';
 import { MailTransport } from './mail.transport';
 
 @Injectable()
@@ -24,5 +35,17 @@ export class MailService {
 
   async sendSheetAssignment(to: string, p: Omit<SheetAssignmentMailParams, 'appUrl'>): Promise<void> {
     await this.transport.send({ to, ...sheetAssignmentMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+
+  async sendPassFinished(to: string, p: Omit<PassFinishedMailParams, 'appUrl'>): Promise<void> {
+    await this.transport.send({ to, ...passFinishedMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+
+  async sendMismatchesWaiting(to: string, p: Omit<MismatchesWaitingMailParams, 'appUrl'>): Promise<void> {
+    await this.transport.send({ to, ...mismatchesWaitingMail({ appUrl: this.config.appUrl, ...p }) });
+  }
+
+  async sendReleasePublished(to: string, p: Omit<ReleasePublishedMailParams, 'appUrl'>): Promise<void> {
+    await this.transport.send({ to, ...releasePublishedMail({ appUrl: this.config.appUrl, ...p }) });
   }
 }

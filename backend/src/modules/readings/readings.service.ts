@@ -23,6 +23,7 @@ import { CampaignMemberEntity } from '../campaigns/campaign-member.entity';
 import { CampaignEntity } from '../campaigns/campaign.entity';
 import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
 import { ChannelEntity } from '../channels/channel.entity';
+import { NotificationsService } from '../notifications/notifications.service';
 import { refuseIfLocked } from '../runs/run-lock';
 import { RunEntity } from '../runs/run.entity';
 import { UserEntity } from '../users/user.entity';
@@ -60,6 +61,7 @@ export class ReadingsService {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly notifications: NotificationsService,
   ) {}
 
   /**
@@ -212,7 +214,7 @@ export class ReadingsService {
 
   /** A pass is finished once every cell has an entry (a blank or flag counts); finishing twice keeps the first time. */
   async finish(user: AuthUser, sheetId: string, pass: ReadingPass): Promise<PassFinish> {
-    return this.dataSource.transaction(async (manager) => {
+    const finished = await this.dataSource.transaction(async (manager) => {
       const ctx = await this.load(user, sheetId, manager, true);
       const { sheet } = ctx;
       if (ctx.access.campaign.status === 'archived') throw new ConflictException(ARCHIVED_READ_ONLY);
@@ -247,6 +249,9 @@ export class ReadingsService {
       });
       return { sheetId: sheet.id, pass, finishedAt: finishedAt.toISOString() };
     });
+    // After the commit; it never throws (a mail failure must not undo a finished pass).
+    await this.notifications.passFinished(finished, user);
+    return finished;
   }
 
   /**

@@ -10,6 +10,7 @@ import { CampaignMemberEntity } from '../campaigns/campaign-member.entity';
 import { ARCHIVED_READ_ONLY } from '../campaigns/campaigns.service';
 import { ChannelEntity } from '../channels/channel.entity';
 import { MailService } from '../mail/mail.service';
+import { NotificationPreferences } from '../mail/notification-preferences.service';
 import { RecordingEntity } from '../recordings/recording.entity';
 import { RUN_NOT_FOUND, RunAccessService } from '../runs/run-access.service';
 import { RunEntity } from '../runs/run.entity';
@@ -44,6 +45,7 @@ export class SheetsService {
     private readonly runAccess: RunAccessService,
     private readonly audit: AuditService,
     private readonly mail: MailService,
+    private readonly preferences: NotificationPreferences,
   ) {}
 
   async list(user: AuthUser, runId: string): Promise<Sheet[]> {
@@ -230,7 +232,10 @@ export class SheetsService {
       return { sheet: saved, channelIds, notify, context: names };
     });
     const result = toSheet(sheet, channelIds, (await this.doneOf(this.dataSource.manager, [sheet])).get(sheet.id));
+    // Only those who have not switched sheet-assignment mails off.
+    const wanting = await this.preferences.wanting('sheet-assigned', notify.map((n) => n.user.id));
     for (const { pass, user: person } of notify) {
+      if (!wanting.has(person.id)) continue;
       try {
         await this.mail.sendSheetAssignment(person.email, {
           campaignId: sheet.campaignId,
