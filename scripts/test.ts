@@ -190,8 +190,9 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
     mailCatcherDir: freshDir(path.join(runDir, 'e2e-mail')),
     demoPassword: config.demoPassword,
     appUrl: `http://127.0.0.1:${port}`,
-    // One short demo run (kept between test runs: the generator skips unchanged files), so the
-    // browser tests transcribe the same kind of video a new user sees after `npm start`.
+    // Three short demo runs (kept between test runs: the generator skips unchanged files), so the
+    // browser tests transcribe the same kind of video a new user sees after `npm start`; each test
+    // file that writes keeps to its own run (run 3 is released and locked by the release test).
     demoVideosDir: path.join(config.storageDir, 'test-run', 'demo-videos'),
   };
   let died: string | undefined;
@@ -206,7 +207,7 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
     const demo = await run(
       'demo',
       process.execPath,
-      ['--import', 'tsx', 'scripts/demo/generate-videos.ts', '--out', settings.demoVideosDir!, '--runs', '1', '--duration', String(E2E_DEMO_SECONDS)],
+      ['--import', 'tsx', 'scripts/demo/generate-videos.ts', '--out', settings.demoVideosDir!, '--runs', '3', '--duration', String(E2E_DEMO_SECONDS)],
       { cwd: repoRoot, output: toLog },
     );
     if (!succeeded(demo)) throw new Error(`the demo video generator ${describeExit(demo)}`);

@@ -94,7 +94,9 @@ export function ReleasesView({ campaignId, roles, runName }: ReleasesViewProps) 
                   <ExportButtons release={r} />
                 </Flex>
               ),
-              defaultExpandAllRows: true,
+              // Controlled, not `defaultExpandAllRows`: a release signed while the page is open
+              // must show its export buttons too (the default only applies when the table mounts).
+              expandedRowKeys: list.filter((r) => r.status === 'published').map((r) => r.id),
               showExpandColumn: false,
             }}
             columns={[
