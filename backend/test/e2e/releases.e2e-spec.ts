@@ -1,4 +1,4 @@
-import type { AuditEntry, CampaignDashboard, Page, Release, Run, Sheet } from '@dialsheet/common';
+import type { Analysis, AuditEntry, CampaignDashboard, Page, Release, Run, Sheet } from '@dialsheet/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
 import { createSyncedRun } from '../helpers/recordings';
@@ -180,6 +180,35 @@ describe('releases: request, sign, lock, correction, new version', () => {
     expect((await call(t.http, 'get', `/api/releases/${first.id}`, f.tokens.lead)).body).toMatchObject({ number: 1, supersededById: second.id, contentHash: first.contentHash });
     const release = (await auditOf(t, w, 'release'))[0];
     expect(release.reason).toBe('Release 2 signed; supersedes release 1');
+  });
+
+  it('keeps the analyses as signed: the release answers with the stable value frozen in its snapshot', async () => {
+    // A campaign of its own: the dashboard test below counts this campaign's mismatches.
+    const w = await releaseWorld(t, media, 'Heat-recovery core frozen analyses');
+    const run = w.run;
+    // Two sheets on the run give four readings of T1 (at 0 and 2 s twice): enough for a fit.
+    await typedSheet(t, w, 'Frozen analysis A', run);
+    await typedSheet(t, w, 'Frozen analysis B', run);
+    const created = await call(t.http, 'post', `/api/campaigns/${w.f.campaign.id}/analyses`, w.f.tokens.engineer).send({
+      kind: 'stable-value',
+      name: 'T1 at 2 s, frozen',
+      input: { runId: run.id, channelId: w.T.id, window: { from: 0, to: 2 }, tStar: 2 },
+    });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    const live = created.body as Analysis;
+    const draftAsk = await call(t.http, 'post', `/api/campaigns/${w.f.campaign.id}/releases`, w.f.tokens.engineer).send({ title: 'Not signed yet', runIds: [run.id] });
+    expect((await call(t.http, 'get', `/api/releases/${(draftAsk.body as Release).id}/analyses`, w.f.tokens.lead)).status).toBe(409);
+    const release = await signRelease(t, w, 'Frozen analyses', [run.id]);
+
+    const res = await call(t.http, 'get', `/api/releases/${release.id}/analyses`, w.f.tokens.reader);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const frozen = (res.body as Analysis[]).find((a) => a.id === live.id);
+    expect(frozen).toBeDefined();
+    expect(frozen!.input).toEqual(live.input);
+    expect(frozen!.result).toEqual(live.result);
+    expect(frozen!.status).toBe('current');
+    expect(frozen!.staleReason).toBeNull();
+    expect((await call(t.http, 'get', `/api/releases/${release.id}/analyses`, w.f.tokens.outsider)).status).toBe(404);
   });
 
   it('lets a lead decline a request with a reason; a declined request cannot be signed', async () => {

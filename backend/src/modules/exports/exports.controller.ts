@@ -1,3 +1,4 @@
+import type { Analysis } from '@dialsheet/common';
 import { Controller, Get, Param, Query, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiProduces, ApiQuery, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
@@ -24,6 +25,12 @@ export class ExportsController {
     @Res() res: Response,
   ): Promise<void> {
     return this.exports.exportRelease(user, releaseId, format, res);
+  }
+
+  @Get('releases/:releaseId/analyses')
+  @ApiOperation({ summary: 'Stable values and balance checks as the published release froze them (any member)' })
+  releaseAnalyses(@CurrentUser() user: AuthUser, @Param('releaseId') releaseId: string): Promise<Analysis[]> {
+    return this.exports.releaseAnalyses(user, releaseId);
   }
 
   @Get('campaigns/:campaignId/export')

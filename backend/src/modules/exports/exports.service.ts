@@ -1,4 +1,4 @@
-import { EXPORT_FORMATS, type ExportFormat, type ExportProvenance } from '@dialsheet/common';
+import { EXPORT_FORMATS, type Analysis, type ExportFormat, type ExportProvenance } from '@dialsheet/common';
 import { BadRequestException, ConflictException, Injectable, InternalServerErrorException, Logger } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
@@ -12,7 +12,7 @@ import { CampaignAccessService } from '../campaigns/campaign-access.service';
 import { ReleasesService } from '../releases/releases.service';
 import type { ReleaseRow } from '../releases/release.mapper';
 import { openDataset, writeCsvLong, writeCsvWide, writeJson, writeXlsx, type DatasetContext, type OpenDataset } from './export-writers';
-import { parseSnapshot, readSnapshot, type SnapshotItem } from './snapshot';
+import { parseSnapshot, readSnapshot, type SnapshotAnalysis, type SnapshotItem } from './snapshot';
 import { SOFTWARE_VERSION } from './software-version';
 
 const CONTENT_TYPES: Record<ExportFormat, string> = {
@@ -78,6 +78,28 @@ function provenanceOf(ctx: DatasetContext, user: AuthUser, release: ReleaseRow |
   };
 }
 
+/** An analysis record of a snapshot in the wire shape; as frozen, it is never stale. */
+function frozenAnalysis(a: SnapshotAnalysis, campaignId: string, signedAt: string): Analysis {
+  return {
+    id: a.id,
+    campaignId,
+    name: a.name,
+    note: a.note,
+    runIds: a.runIds,
+    status: a.status === 'failed' ? 'failed' : 'current',
+    staleReason: null,
+    error: a.error,
+    computedAt: a.computedAt,
+    computedBy: null,
+    version: 0,
+    createdAt: a.computedAt ?? signedAt,
+    updatedAt: signedAt,
+    kind: a.kind,
+    input: a.input,
+    result: a.result,
+  } as Analysis;
+}
+
 /**
  * Exports of a published release (from its frozen snapshot, any member) and drafts of live data
  * (Leads and Engineers only: a draft holds pass-1 entries that a checker must not see before
@@ -127,6 +149,38 @@ export class ExportsService {
     const data = await openDataset(parseSnapshot(lines()));
     res.setHeader('X-Dialsheet-Content-Hash', expected);
     await this.send(res, format, data, provenanceOf(data.context, user, row, new Date()), { number: row.number as number });
+  }
+
+  /**
+   * The stable values and balances as the release froze them (its report shows these, not the
+   * campaign's live analyses). The whole snapshot is read so its hash is checked; only the
+   * analysis records are kept.
+   */
+  async releaseAnalyses(user: AuthUser, releaseId: string): Promise<Analysis[]> {
+    const { row } = await this.releases.requireRelease(user, releaseId);
+    if (row.status !== 'published' || !row.snapshot_key || !row.content_hash) {
+      throw new ConflictException('Only a published release has frozen analyses; see the campaign’s analyses for live ones');
+    }
+    const input = await this.storage.openRead(row.snapshot_key);
+    const hash = createHash('sha256');
+    const found: SnapshotAnalysis[] = [];
+    const reader = createInterface({ input, crlfDelay: Infinity });
+    try {
+      for await (const line of reader) {
+        hash.update(`${line}\n`);
+        // Analysis records come before the cells; a cheap test skips parsing each cell line.
+        if (line.startsWith('{"type":"analysis"')) found.push(JSON.parse(line) as SnapshotAnalysis);
+      }
+    } finally {
+      reader.close();
+      input.destroy();
+    }
+    if (hash.digest('hex') !== row.content_hash) {
+      this.logger.error(`Snapshot of release ${row.id} no longer matches its signed hash`);
+      throw new InternalServerErrorException(`The stored snapshot of release ${row.number} does not match its signed hash`);
+    }
+    const signedAt = row.signed_at ? new Date(row.signed_at).toISOString() : new Date(0).toISOString();
+    return found.map((a) => frozenAnalysis(a, row.campaign_id, signedAt));
   }
 
   async exportDraft(user: AuthUser, campaignId: string, formatText: string | undefined, runIdsText: string | undefined, res: Response): Promise<void> {

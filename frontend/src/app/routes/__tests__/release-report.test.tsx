@@ -92,6 +92,8 @@ function renderReport(roles: CampaignRole[], routes: StubRoutes = {}) {
       'GET /api/campaigns': { body: [makeCampaign({ myRoles: roles })] },
       'GET /api/campaigns/:campaignId': { body: makeCampaign({ myRoles: roles }) },
       'GET /api/releases/:releaseId': { body: release },
+      // The release's own analyses, frozen when it was signed (never stale), not the live ones.
+      'GET /api/releases/:releaseId/analyses': { body: [flow, other, { ...balance, status: 'current', staleReason: null }] },
       'GET /api/campaigns/:campaignId/analyses': { body: [flow, other, balance] },
       'GET /api/campaigns/:campaignId/runs': { body: [makeRun({ id: RUN_A_ID, name: 'Run 1, meter on warm stream' })] },
       'GET /api/campaigns/:campaignId/channels': { body: [channel] },
@@ -132,7 +134,9 @@ describe('printable release report', () => {
     expect(within(values).queryByText('Cool stream flow')).not.toBeInTheDocument();
 
     expect(screen.getByTestId('closure-mass')).toHaveTextContent('-1.23 ± 2.5 % (k = 2)');
-    expect(screen.getByText('Core mass balance').closest('article')).toHaveTextContent('stale: readings of Run 1 changed');
+    // As signed: the live balance has gone stale since, which the report of the release ignores.
+    expect(screen.getByText('Core mass balance').closest('article')).not.toHaveTextContent('stale');
+    expect(network.callsTo('GET /api/campaigns/:campaignId/analyses')).toHaveLength(0);
     const budget = screen.getByRole('table', { name: 'Mass closure budget' });
     expect(within(budget).getByText('flow meter accuracy').closest('tr')).toHaveTextContent('warm in, warm out0.010268.7 %');
 
@@ -154,6 +158,14 @@ describe('printable release report', () => {
     const { user } = renderReport(['reader']);
     await user.click(await screen.findByRole('button', { name: /Print/ }, { timeout: 20_000 }));
     expect(print).toHaveBeenCalledTimes(1);
+  });
+
+  it('previews a request not yet signed from the live analyses, tagging what went stale', async () => {
+    const requested = { ...release, status: 'requested' as const, number: null, contentHash: null, signedBy: null, signedAt: null };
+    const { network } = renderReport(['lead'], { 'GET /api/releases/:releaseId': { body: requested } });
+    await screen.findByText('Not a signed release', undefined, { timeout: 20_000 });
+    await waitFor(() => expect(screen.getByText('Core mass balance').closest('article')).toHaveTextContent('stale: readings of Run 1 changed'));
+    expect(network.callsTo('GET /api/releases/:releaseId/analyses')).toHaveLength(0);
   });
 
   it('draws only the stored fit for a reader, who may not read the raw series', async () => {

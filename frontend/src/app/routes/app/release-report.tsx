@@ -13,6 +13,7 @@ import { getSheetsQueryOptions } from '@/features/sheets/api/get-sheets';
 import { useAnalyses } from '@/features/analysis/api/get-analyses';
 import { useDerivedChannels } from '@/features/analysis/api/get-derived-channels';
 import { useRelease } from '@/features/releases/api/get-release';
+import { useReleaseAnalyses } from '@/features/releases/api/get-release-analyses';
 import { ReleaseReport, type ReportSheet } from '@/features/releases/components/release-report';
 import { mayOversee } from '@/features/releases/utils/release-access';
 
@@ -21,7 +22,11 @@ export function ReleaseReportRoute() {
   const { campaignId = '', releaseId = '' } = useParams();
   const { data: campaign } = useCampaign({ campaignId });
   const release = useRelease({ releaseId });
-  const analyses = useAnalyses({ campaignId });
+  // A published release reports the analyses it froze; a request not yet signed previews live ones.
+  const published = release.data?.status === 'published';
+  const frozenAnalyses = useReleaseAnalyses({ releaseId, queryConfig: { enabled: published } });
+  const liveAnalyses = useAnalyses({ campaignId, queryConfig: { enabled: release.data !== undefined && !published } });
+  const analyses = published ? frozenAnalyses : liveAnalyses;
   const runs = useRuns({ campaignId });
   const channels = useChannels({ campaignId });
   const derived = useDerivedChannels({ campaignId });
@@ -76,6 +81,7 @@ export function ReleaseReportRoute() {
         runName={runName}
         channelName={channelName}
         analyses={analyses.data}
+        analysesFrozen={published}
         sheets={sheets}
         runsLockedByThis={runsLockedByThis}
         canSeeReadings={mayOversee(campaign.myRoles)}

@@ -31,11 +31,18 @@ export interface ReleaseReportProps {
   runsLockedByThis: ReadonlySet<string>;
   /** May read the readings behind a chart (leads and engineers). */
   canSeeReadings: boolean;
+  /** The analyses are the release's own, as signed (not the campaign's live ones). */
+  analysesFrozen?: boolean;
 }
 
 /** Why a stored result may differ from what was signed. */
-function resultNotes(analysis: Analysis, release: Release, runsLockedByThis: ReadonlySet<string>) {
+function resultNotes(analysis: Analysis, release: Release, runsLockedByThis: ReadonlySet<string>, frozen: boolean) {
   const notes: string[] = [];
+  if (frozen) {
+    // As signed: later recomputes and corrections do not reach these numbers.
+    if (analysis.status === 'failed') notes.push(`failed${analysis.error ? `: ${analysis.error}` : ''}`);
+    return notes;
+  }
   if (analysis.status === 'stale') notes.push(`stale${analysis.staleReason ? `: ${analysis.staleReason}` : ''}`);
   if (analysis.status === 'failed') notes.push(`failed${analysis.error ? `: ${analysis.error}` : ''}`);
   if (release.signedAt && analysis.computedAt && analysis.computedAt > release.signedAt) notes.push('recomputed after signing');
@@ -90,7 +97,7 @@ function StableValuesSection({ items, props }: { items: StableValueAnalysis[]; p
               key: 'name',
               render: (_, a) => (
                 <>
-                  {a.name} <NoteTags notes={resultNotes(a, release, runsLockedByThis)} />
+                  {a.name} <NoteTags notes={resultNotes(a, release, runsLockedByThis, props.analysesFrozen === true)} />
                 </>
               ),
             },
@@ -215,7 +222,7 @@ function BalancesSection({ items, props }: { items: BalanceAnalysis[]; props: Re
         items.map((b) => (
           <article key={b.id} className="report-balance">
             <Typography.Title level={5}>
-              {b.name} <NoteTags notes={resultNotes(b, props.release, props.runsLockedByThis)} />
+              {b.name} <NoteTags notes={resultNotes(b, props.release, props.runsLockedByThis, props.analysesFrozen === true)} />
             </Typography.Title>
             <Typography.Paragraph type="secondary">Runs: {b.runIds.map(props.runName).join(', ')}</Typography.Paragraph>
             {b.result ? (
