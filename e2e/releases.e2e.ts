@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { parse } from 'csv-parse/sync';
-import type { Channel, DashboardRun, LoginResponse, Release, Run, Sheet, SheetRow } from '@dialsheet/common';
+import type { CampaignMember, Channel, DashboardRun, LoginResponse, Release, Run, Sheet, SheetRow } from '@dialsheet/common';
 import { neutraliseText, toVideoTime } from '@dialsheet/common';
 import { assertServerUp, baseUrl, demoPassword, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
 
@@ -164,6 +164,19 @@ describe('releases in the browser', () => {
       const file = await download.path();
       csv = fs.readFileSync(file, 'utf8');
       await page.getByText(`Saved ${download.suggestedFilename()}`).waitFor();
+
+      // The lead's dashboard shows the run locked by the release.
+      await page.goto(`${baseUrl}/campaigns/${campaignId}/dashboard`);
+      await page.getByRole('row').filter({ hasText: run.name }).getByText(`release ${release!.number}`, { exact: true }).waitFor();
+
+      // The printable report: the release's number, its full hash, and who read and who checked.
+      const members = await api<CampaignMember[]>(lead, 'GET', `/campaigns/${campaignId}/members`);
+      const nameOf = (email: string) => members.find((m) => m.email === email)?.name ?? email;
+      await page.goto(`${baseUrl}/campaigns/${campaignId}/releases/${release!.id}/report`);
+      await page.locator('.report-facts .content-hash').filter({ hasText: release!.contentHash! }).waitFor();
+      const people = page.locator('[aria-label="Who read and who checked each sheet"]').getByRole('row').filter({ hasText: sheet.name });
+      await people.filter({ hasText: nameOf('reader@demo.test') }).filter({ hasText: nameOf('checker@demo.test') }).waitFor();
+      await page.getByRole('button', { name: /Print/ }).waitFor();
     });
 
     // Provenance: the "# …" lines name the release and the hash the page shows.
