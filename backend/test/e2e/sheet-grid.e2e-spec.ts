@@ -1,7 +1,7 @@
 import type { Channel, Reading, Run, Sheet, SheetGrid, SheetGridPass, SheetMismatches, SheetRow } from '@dialsheet/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
-import { campaignFixture, createChannel, createSyncedRun, type Fixture } from '../helpers/recordings';
+import { campaignFixture, createChannel, createSyncedRun, openAssignedSheet, type Fixture } from '../helpers/recordings';
 import { addMember, bearer, createUser, login, startTestApp, type Http, type TestApp } from '../helpers/test-app';
 
 // The sheet table's compact read must say exactly what the readings and mismatch routes say, to
@@ -60,20 +60,7 @@ describe('sheet grid', () => {
 
   /** Three rows (0, 2, 4 s) × two channels. */
   async function openSheet(name: string, checkerId = f.users.checker.id): Promise<Sheet> {
-    const res = await call(t.http, 'post', `/api/runs/${run.id}/sheets`, f.tokens.engineer).send({
-      name,
-      startTime: 0,
-      endTime: 4,
-      interval: 2,
-      channelIds: channels.map((c) => c.id),
-    });
-    expect(res.status, JSON.stringify(res.body)).toBe(201);
-    const assigned = await call(t.http, 'put', `/api/sheets/${(res.body as Sheet).id}/assignment`, f.tokens.lead).send({
-      readerId: f.users.reader.id,
-      checkerId,
-    });
-    expect(assigned.status, JSON.stringify(assigned.body)).toBe(200);
-    return assigned.body as Sheet;
+    return openAssignedSheet(t.http, f, run.id, channels.map((c) => c.id), { name, startTime: 0, endTime: 4, interval: 2 }, checkerId);
   }
 
   async function enter(sheet: Sheet, pass: 1 | 2, token: string, rows: Record<number, string[]>, baseVersion?: number): Promise<void> {

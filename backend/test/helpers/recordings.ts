@@ -1,4 +1,4 @@
-import type { Campaign, Channel, Recording, RecordingStatus, Run } from '@dialsheet/common';
+import type { Campaign, Channel, Recording, RecordingStatus, Run, Sheet } from '@dialsheet/common';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type request from 'supertest';
@@ -111,4 +111,26 @@ export async function createChannel(http: Http, token: string, campaignId: strin
   const res = await http.post(`/api/campaigns/${campaignId}/channels`).set(bearer(token)).send(body);
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body as Channel;
+}
+
+/**
+ * A sheet on `runId` every `interval` s from `startTime` to `endTime` over `channelIds` (planned by
+ * the engineer), assigned by the lead to the fixture's reader and to `checkerId` (the checker).
+ */
+export async function openAssignedSheet(
+  http: Http,
+  f: Fixture,
+  runId: string,
+  channelIds: string[],
+  plan: { name: string; startTime: number; endTime: number; interval: number },
+  checkerId: string = f.users.checker.id,
+): Promise<Sheet> {
+  const res = await http.post(`/api/runs/${runId}/sheets`).set(bearer(f.tokens.engineer)).send({ ...plan, channelIds });
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  const assigned = await http
+    .put(`/api/sheets/${(res.body as Sheet).id}/assignment`)
+    .set(bearer(f.tokens.lead))
+    .send({ readerId: f.users.reader.id, checkerId });
+  expect(assigned.status, JSON.stringify(assigned.body)).toBe(200);
+  return assigned.body as Sheet;
 }
