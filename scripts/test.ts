@@ -218,7 +218,7 @@ async function browserTests(config: TestConfig, cluster: Cluster | undefined, bu
     outcome = await vitest(
       'browser tests',
       repoRoot,
-      ['--config', 'e2e/vitest.config.mts'],
+      ['--config', 'e2e/vitest.config.mts', ...config.e2eOnly],
       baseEnv({
         E2E_BASE_URL: settings.appUrl,
         DEMO_PASSWORD: settings.demoPassword,

@@ -59,6 +59,12 @@ describe('readTestConfig', () => {
     expect(readTestConfig({}).pgTestPort).toBe(5434);
     expect(readTestConfig({ PG_TEST_PORT: '6000' }).pgTestPort).toBe(6000);
   });
+
+  it('reads E2E_ONLY as a list of browser test file names, empty when unset or blank', () => {
+    expect(readTestConfig({}).e2eOnly).toEqual([]);
+    expect(readTestConfig({ E2E_ONLY: '   ' }).e2eOnly).toEqual([]);
+    expect(readTestConfig({ E2E_ONLY: ' sheets  releases ' }).e2eOnly).toEqual(['sheets', 'releases']);
+  });
 });
 
 describe('reachableHost', () => {

@@ -85,6 +85,8 @@ export interface TestConfig {
   storageDir: string;
   pgTestPort: number;
   demoPassword: string;
+  /** `E2E_ONLY`: run only the browser test files whose names contain these words (space-separated). */
+  e2eOnly: string[];
 }
 
 export function readTestConfig(env: NodeJS.ProcessEnv = process.env): TestConfig {
@@ -92,6 +94,7 @@ export function readTestConfig(env: NodeJS.ProcessEnv = process.env): TestConfig
     storageDir: readStorageDir(env),
     pgTestPort: readPort(env, 'PG_TEST_PORT', 5434),
     demoPassword: readText(env, 'DEMO_PASSWORD') ?? 'dialsheet-demo',
+    e2eOnly: (readText(env, 'E2E_ONLY') ?? '').split(/\s+/).filter(Boolean),
   };
 }
 
