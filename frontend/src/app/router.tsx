@@ -1,11 +1,14 @@
 import { useState } from 'react';
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { paths } from '@/config/paths';
 import { PageLoader } from '@/components/feedback/page-loader';
 import { RouteError } from '@/components/feedback/route-error';
+import { campaignLoader, sheetLoader, signedInLoader } from './route-data';
 
-// Pages load on demand so the sign-in page does not wait for the whole app.
-export function createAppRoutes(): RouteObject[] {
+// Pages load on demand so the sign-in page does not wait for the whole app. Loaders sit outside
+// `lazy` so the router starts a page's requests while its code is still loading (route-data.ts).
+export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
   return [
     {
       path: '/',
@@ -27,6 +30,7 @@ export function createAppRoutes(): RouteObject[] {
           lazy: () => import('./routes/accept-invitation').then((m) => ({ Component: m.AcceptInvitationRoute })),
         },
         {
+          loader: signedInLoader(queryClient),
           lazy: () => import('./routes/app/root').then((m) => ({ Component: m.AppRoot })),
           children: [
             {
@@ -35,6 +39,7 @@ export function createAppRoutes(): RouteObject[] {
             },
             {
               path: paths.campaign.path,
+              loader: campaignLoader(queryClient),
               lazy: () => import('./routes/app/campaign-layout').then((m) => ({ Component: m.CampaignLayout })),
               children: [
                 {
@@ -75,6 +80,7 @@ export function createAppRoutes(): RouteObject[] {
                 },
                 {
                   path: 'sheets/:sheetId',
+                  loader: sheetLoader(queryClient),
                   lazy: () => import('./routes/app/sheet').then((m) => ({ Component: m.SheetRoute })),
                 },
                 {
@@ -117,6 +123,7 @@ export function createAppRoutes(): RouteObject[] {
 }
 
 export function AppRouter() {
-  const [router] = useState(() => createBrowserRouter(createAppRoutes()));
+  const queryClient = useQueryClient();
+  const [router] = useState(() => createBrowserRouter(createAppRoutes(queryClient)));
   return <RouterProvider router={router} />;
 }

@@ -27,7 +27,7 @@ export function renderApp(url: string, { user = null, routes = {} }: RenderAppOp
   if (user) authToken.set(TEST_TOKEN);
   const network = stubFetch({ ...(user ? { 'GET /api/auth/me': { body: user } } : {}), ...routes });
   const queryClient = createQueryClient();
-  const router = createMemoryRouter(createAppRoutes(), { initialEntries: [url] });
+  const router = createMemoryRouter(createAppRoutes(queryClient), { initialEntries: [url] });
   const view = render(
     <StyleProvider container={detachedStyles}>
       <AppProvider queryClient={queryClient}>

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef } from 'react';
+import { useCallback, useMemo } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Breadcrumb, Button, Skeleton, Tabs } from 'antd';
 import { toVideoTime, type Recording, type SyncMarks } from '@dialsheet/common';
@@ -16,7 +16,6 @@ import { useMembers } from '@/features/members/api/get-members';
 import { useRun } from '@/features/runs/api/get-run';
 import { RecordingPlayer } from '@/features/recordings/components/recording-player';
 import { useSheet } from '@/features/sheets/api/get-sheet';
-import { prefetchSheetGrid } from '@/features/sheets/api/get-sheet-grid';
 import { EnterPassButton } from '@/features/sheets/components/enter-pass-button';
 import type { FrameTarget } from '@/features/sheets/components/frame-target';
 import { MismatchPanel } from '@/features/sheets/components/mismatch-panel';
@@ -57,11 +56,8 @@ export function SheetRoute() {
   const channels = useChannels({ campaignId });
   const members = useMembers({ campaignId });
   useDocumentTitle(sheet.data ? `${sheet.data.name} · Sheets` : 'Sheet');
-  // The table's data is asked for at once when the page opens on the table (not on a tab change).
-  const openedOnTable = useRef(search.get('tab') === null);
-  useEffect(() => {
-    if (sheetId !== '' && openedOnTable.current) prefetchSheetGrid(sheetId);
-  }, [sheetId]);
+  // The route's loader (app/route-data.ts) has already asked for the sheet, channels, members
+  // and, when the page opens on the table, the table's grid.
 
   const current = sheet.data;
   const viewer = useMemo<SheetViewer | null>(
