@@ -1,6 +1,8 @@
-import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { ConfigError, loadConfig, loadMailCatcherSettings, validateEnv } from './env';
 import { DEFAULT_STORAGE_DIR } from './paths';
@@ -168,6 +170,20 @@ describe('loadConfig and the JWT secret', () => {
     expect(first.jwtSecret.length).toBeGreaterThanOrEqual(32);
     expect(loadConfig({ DATABASE_URL, STORAGE_DIR: dir }).jwtSecret).toBe(first.jwtSecret);
   });
+
+  it('gives processes starting together one secret, each reading it whole, and leaves no drafts', async () => {
+    const module = pathToFileURL(join(__dirname, 'jwt-secret.ts')).href;
+    // The backend is CommonJS: imported from ESM, its exports sit under `default`.
+    const script = `import(${JSON.stringify(module)}).then((m) => process.stdout.write((m.readOrCreateJwtSecret ?? m.default.readOrCreateJwtSecret)(${JSON.stringify(dir)})))`;
+    const one = () =>
+      new Promise<string>((resolve, reject) =>
+        execFile(process.execPath, ['--import', 'tsx', '-e', script], (error, stdout, stderr) => (error ? reject(new Error(stderr || error.message)) : resolve(stdout))),
+      );
+    const secrets = await Promise.all(Array.from({ length: 6 }, one));
+    expect(new Set(secrets).size).toBe(1);
+    expect(secrets[0].length).toBeGreaterThanOrEqual(32);
+    expect(readdirSync(dir)).toEqual(['jwt-secret']);
+  }, 60_000);
 
   it('refuses a too-short JWT_SECRET and a truncated secret file', () => {
     expect(problemsOf(() => loadConfig({ DATABASE_URL, STORAGE_DIR: dir, JWT_SECRET: 'short' }))).toEqual([

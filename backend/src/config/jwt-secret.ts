@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { chmodSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { chmodSync, linkSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
 export const JWT_SECRET_FILE = 'jwt-secret';
@@ -12,12 +12,18 @@ export function readOrCreateJwtSecret(storageDir: string): string {
   const file = join(storageDir, JWT_SECRET_FILE);
   mkdirSync(storageDir, { recursive: true });
   const secret = randomBytes(48).toString('base64url');
+  // Written whole under a name of this process's own, then linked into place: the link fails when
+  // the file exists, so processes starting together keep one secret, and none can read the file
+  // between its creation and its content (as it could with an exclusive create and a write).
+  const draft = `${file}.${process.pid}.${randomBytes(4).toString('hex')}`;
+  writeFileSync(draft, `${secret}\n`, { flag: 'wx', mode: 0o600 });
   try {
-    // 'wx' fails when the file exists, so two processes starting together keep one secret.
-    writeFileSync(file, `${secret}\n`, { flag: 'wx', mode: 0o600 });
+    linkSync(draft, file);
     return secret;
   } catch (error) {
     if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+  } finally {
+    rmSync(draft, { force: true });
   }
   // An older file may have been created with a looser mode by hand; tighten it.
   chmodSync(file, 0o600);
