@@ -24,15 +24,18 @@
 // profile follows the throughput run: CPU per save of the app, of PostgreSQL and of this load
 // generator, and how busy the app's connection pool was.
 //
+// Then the same paced load for 60 s across two API processes (WORKER=off) and one worker
+// process on the same database and storage, half the readers on each (the issue's scale-out
+// deployment); its p99 and lost rows are in the result line as two_api_p99 and two_api_lost.
+//
 // The database runs with fsync off (throw-away cluster), so commit waits no disk: the figures
 // are for the app and PostgreSQL's work, not a disk's flush latency.
-import http from 'node:http';
-import type { Channel, SaveRowRequest, SaveRowResponse } from '@dialsheet/common';
 import { connectDatabase, postmasterPid } from './lib/database';
 import { panelChannels, memberId, openSheet, runWithRecording } from './lib/fixtures';
-import { runBenchmark, secondsSince, sleep, startStack } from './lib/harness';
+import { freePort, runBenchmark, secondsSince, sleep, startScaleOutProcess, startStack } from './lib/harness';
 import { ApiClient } from './lib/http-client';
 import { cpuMsOf, median, percentile, round, treeCpuMs } from './lib/measure';
+import { checkStored, SaveClient, type Outcome } from './lib/save-load';
 import { makeTestVideo } from './lib/videos';
 
 const CLIENTS = 50;
@@ -53,107 +56,6 @@ const SHEET = { startTime: 0, endTime: 125, interval: 0.1 };
 /** A tiny recording is enough: the rows need a processed video to exist, not to be watched. */
 const VIDEO = { seconds: 130, width: 64, height: 36, fps: 2, gop: 20 };
 
-interface Outcome {
-  sheet: number;
-  row: number;
-  ms: number;
-  ok: boolean;
-  /** Paced rows: how long the row waited in the reader's queue behind the previous one (part of ms). */
-  queuedMs?: number;
-  /** Paced rows: when the row was due, in ms from the start of the phase. */
-  dueAt?: number;
-}
-
-/** The six values typed for a row: plausible, different from row to row, exact as text. */
-function rowTexts(row: number): string[] {
-  const t = (base: number) => (base + (row % 200) / 10).toFixed(1);
-  return [t(20), t(30), t(15), t(25), (2.5 + (row % 100) / 1000).toFixed(3), (5 + (row % 8) * 0.5).toFixed(1)];
-}
-
-class SaveClient {
-  readonly agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
-  nextRow = 0;
-  readonly errors: string[] = [];
-
-  constructor(
-    readonly index: number,
-    readonly sheetId: string,
-    private readonly channels: Channel[],
-    private readonly authorization: string,
-    private readonly url: URL,
-    readonly rowCount: number,
-  ) {}
-
-  /** PUTs the next row; resolves with its latency and whether the answer was the promised one. */
-  save(): Promise<Outcome> {
-    const row = this.nextRow++;
-    const texts = rowTexts(row);
-    const body: SaveRowRequest = {
-      pass: 1,
-      readings: this.channels.map((channel, i) => ({ channelId: channel.id, rawText: texts[i], frameTime: Math.floor(row * 0.1 * 2) / 2 })),
-    };
-    const payload = Buffer.from(JSON.stringify(body));
-    const url = new URL(`/api/sheets/${this.sheetId}/rows/${row}`, this.url);
-    return new Promise((resolve) => {
-      const started = process.hrtime.bigint();
-      const done = (ok: boolean, problem?: string) => {
-        const ms = Number(process.hrtime.bigint() - started) / 1e6;
-        if (problem && this.errors.length < 5) this.errors.push(`row ${row}: ${problem}`);
-        resolve({ sheet: this.index, row, ms, ok });
-      };
-      const request = http.request(
-        url,
-        {
-          method: 'PUT',
-          agent: this.agent,
-          headers: { authorization: this.authorization, 'content-type': 'application/json', 'content-length': String(payload.length) },
-        },
-        (response) => {
-          const chunks: Buffer[] = [];
-          response.on('data', (chunk: Buffer) => chunks.push(chunk));
-          response.on('error', (error) => done(false, error.message));
-          response.on('end', () => {
-            const text = Buffer.concat(chunks).toString('utf8');
-            if (response.statusCode !== 200) return done(false, `HTTP ${response.statusCode} ${text.slice(0, 200)}`);
-            try {
-              const answer = JSON.parse(text) as SaveRowResponse;
-              const good = answer.readings.length === texts.length && answer.readings.every((r, i) => r.rawText === texts[i] && r.rowIndex === row);
-              done(good, good ? undefined : `the answer does not echo the row: ${text.slice(0, 200)}`);
-            } catch {
-              done(false, `the answer is not JSON: ${text.slice(0, 200)}`);
-            }
-          });
-        },
-      );
-      request.setTimeout(10_000, () => request.destroy(new Error('no answer within 10 s')));
-      request.on('error', (error) => done(false, error.message));
-      request.end(payload);
-    });
-  }
-
-  /** Saves rows back to back until `untilMs` (performance.now()). */
-  async loop(untilMs: number, out: Outcome[]): Promise<void> {
-    while (performance.now() < untilMs && this.nextRow < this.rowCount) out.push(await this.save());
-  }
-
-  /**
-   * A reader: the next row is due `pause()` ms after the last one was due; it is sent when due, or
-   * when the previous answer came if that is later (the entry screen's queue), and its latency is
-   * counted from when it was due. Rows due from `untilMs` on are not sent.
-   */
-  async paced(start: number, firstDue: number, untilMs: number, out: Outcome[], pause: () => number): Promise<void> {
-    let due = firstDue;
-    while (due < untilMs && this.nextRow < this.rowCount) {
-      const wait = due - performance.now();
-      if (wait > 0) await sleep(wait);
-      const late = Math.max(0, performance.now() - due);
-      const outcome = await this.save();
-      out.push({ ...outcome, ms: outcome.ms + late, queuedMs: late, dueAt: due - start });
-      due += pause();
-    }
-  }
-}
-
 function summary(label: string, outcomes: Outcome[], seconds: number): string {
   const ms = outcomes.map((o) => o.ms);
   const f = (p: number) => percentile(ms, p).toFixed(1);
@@ -164,7 +66,7 @@ function summary(label: string, outcomes: Outcome[], seconds: number): string {
   );
 }
 
-runBenchmark('save-row', 6 * 60_000, async (scratch) => {
+runBenchmark('save-row', 9 * 60_000, async (scratch) => {
   const root = scratch.tempDir('save-row');
   const stack = await startStack(scratch, root, {
     worker: true,
@@ -316,49 +218,54 @@ runBenchmark('save-row', 6 * 60_000, async (scratch) => {
       (waits[0] ? `; the sheet-row lock query took ${waits[0].mean.toFixed(2)} ms on average, ${waits[0].max.toFixed(1)} ms at most` : ''),
   );
 
-  // 4. Nothing lost: every acknowledged row is stored once, as typed, with its audit entries.
-  const all = [...primer, ...serial, ...pacedWarmUp, ...paced, ...warmUp, ...closed];
-  const saved = new Map<string, Outcome>();
-  for (const o of all) if (o.ok) saved.set(`${o.sheet}:${o.row}`, o);
-  const sheetIndex = new Map(sheets.map((s, i) => [s.id, i]));
-  const { rows: stored } = await db.query<{ sheet_id: string; row_index: number; n: number; texts: string[] }>(
-    `SELECT r.sheet_id, r.row_index, count(*)::int AS n, array_agg(r.raw_text ORDER BY sc.position) AS texts
-       FROM readings r JOIN sheet_channels sc ON sc.sheet_id = r.sheet_id AND sc.channel_id = r.channel_id
-      WHERE r.pass = 1 AND r.sheet_id = ANY($1::uuid[])
-      GROUP BY r.sheet_id, r.row_index`,
-    [sheets.map((s) => s.id)],
-  );
-  let lost = 0;
-  let wrong = 0;
-  const found = new Set<string>();
-  for (const row of stored) {
-    const key = `${sheetIndex.get(row.sheet_id)}:${row.row_index}`;
-    found.add(key);
-    if (row.n !== channels.length || row.texts.join('|') !== rowTexts(row.row_index).join('|')) wrong++;
-  }
-  for (const key of saved.keys()) if (!found.has(key)) lost++;
-  const unacknowledged = [...found].filter((key) => !saved.has(key)).length;
-  const { rows: counts } = await db.query<{ readings: number; distinct_cells: number; audits: number }>(
-    `SELECT (SELECT count(*)::int FROM readings WHERE sheet_id = ANY($1::uuid[])) AS readings,
-            (SELECT count(DISTINCT (sheet_id, row_index, channel_id, pass))::int FROM readings WHERE sheet_id = ANY($1::uuid[])) AS distinct_cells,
-            (SELECT count(*)::int FROM audit_entries WHERE entity_type = 'reading' AND action = 'create') AS audits`,
-    [sheets.map((s) => s.id)],
-  );
-  const c = counts[0];
-  const duplicates = c.readings - c.distinct_cells;
+  // 4. Scale-out: the same paced load across two API processes (WORKER=off) and one worker process
+  // on the same database and storage, half the readers on each API process, as a deployment behind a
+  // load balancer runs. The single app above stops first (it ran the jobs), so the machine's two
+  // cores are shared by the same kind of work as before plus one more Node process.
+  const scaleStarted = process.hrtime.bigint();
+  await stack.app.stop();
+  const apiA = await startScaleOutProcess(scratch, stack, 'api-a', { api: { port: await freePort() } });
+  const apiB = await startScaleOutProcess(scratch, stack, 'api-b', { api: { port: await freePort() } });
+  await startScaleOutProcess(scratch, stack, 'worker', { worker: true });
+  for (const c of clients) c.agent.destroy();
+  const spread = clients.map((old, i) => {
+    const client = new SaveClient(i, old.sheetId, channels, reader.authorization, new URL(i % 2 === 0 ? apiA.baseUrl! : apiB.baseUrl!), old.rowCount);
+    client.nextRow = old.nextRow;
+    return client;
+  });
+  scratch.add('close the scale-out client connections', () => spread.forEach((c) => c.agent.destroy()));
+  console.log(`scale-out: API processes ${apiA.baseUrl} and ${apiB.baseUrl} (WORKER=off) and a worker process up in ${secondsSince(scaleStarted).toFixed(1)} s`);
+  const scaleWarmUp: Outcome[] = [];
+  const scaled: Outcome[] = [];
+  const scaleWarmStart = performance.now();
+  await Promise.all(spread.map((c) => c.paced(scaleWarmStart, scaleWarmStart + Math.random() * PACE_MAX_MS, scaleWarmStart + PACED_WARM_UP_MS, scaleWarmUp, pause)));
+  started = process.hrtime.bigint();
+  const scaleStart = performance.now();
+  await Promise.all(spread.map((c) => c.paced(scaleStart, scaleStart + Math.random() * PACE_MAX_MS, scaleStart + PACED_MS, scaled, pause)));
+  const scaledSeconds = secondsSince(started);
+  console.log(summary(`${CLIENTS} readers across 2 API processes + 1 worker, same pace`, scaled, scaledSeconds));
+  const scaledAnswerMs = scaled.map((o) => o.ms - (o.queuedMs ?? 0));
+  console.log(`  the server's answer alone: p50 ${percentile(scaledAnswerMs, 50).toFixed(1)} ms, p99 ${percentile(scaledAnswerMs, 99).toFixed(1)} ms`);
+
+  // 5. Nothing lost: every acknowledged row is stored once, as typed, with its audit entries.
+  const sheetIds = sheets.map((s) => s.id);
+  const all = [...primer, ...serial, ...pacedWarmUp, ...paced, ...warmUp, ...closed, ...scaleWarmUp, ...scaled];
+  const check = await checkStored(db, sheetIds, channels.length, all);
+  const { lost, wrong, duplicates } = check;
+  const scaledLost = (await checkStored(db, sheetIds, channels.length, [...scaleWarmUp, ...scaled])).lost;
   console.log(
-    `database: ${saved.size} rows acknowledged, ${stored.length} stored; lost ${lost}, stored differently from what was typed ${wrong}, ` +
-      `stored without an acknowledgement ${unacknowledged}, duplicate readings ${duplicates}, ` +
-      `readings ${c.readings} with ${c.audits} audit entries`,
+    `database: ${check.acknowledged} rows acknowledged, ${check.stored} stored; lost ${lost} (${scaledLost} of them in the scale-out phase), ` +
+      `stored differently from what was typed ${wrong}, stored without an acknowledgement ${check.unacknowledged}, duplicate readings ${duplicates}, ` +
+      `readings ${check.readings} with ${check.audits} audit entries`,
   );
   const errors = all.filter((o) => !o.ok).length;
   if (errors > 0) {
-    console.log(`first errors: ${clients.flatMap((cl) => cl.errors.map((e) => `sheet ${cl.index + 1} ${e}`)).slice(0, 5).join('; ')}`);
+    console.log(`first errors: ${[...clients, ...spread].flatMap((cl) => cl.errors.map((e) => `sheet ${cl.index + 1} ${e}`)).slice(0, 5).join('; ')}`);
   }
-  const exhausted = clients.filter((cl) => cl.nextRow >= cl.rowCount).length;
+  const exhausted = spread.filter((cl) => cl.nextRow >= cl.rowCount).length;
   if (exhausted > 0) console.log(`note: ${exhausted} client(s) ran out of rows before the time was up`);
-  if (lost > 0 || wrong > 0 || duplicates > 0 || c.audits !== c.readings) {
-    throw new Error(`the database does not hold exactly what was acknowledged (lost ${lost}, wrong ${wrong}, duplicates ${duplicates}, audits ${c.audits}/${c.readings})`);
+  if (lost > 0 || wrong > 0 || duplicates > 0 || check.audits !== check.readings) {
+    throw new Error(`the database does not hold exactly what was acknowledged (lost ${lost}, wrong ${wrong}, duplicates ${duplicates}, audits ${check.audits}/${check.readings})`);
   }
 
   const closedMs = closed.map((o) => o.ms);
@@ -368,6 +275,13 @@ runBenchmark('save-row', 6 * 60_000, async (scratch) => {
   console.log(
     `p99 with ${CLIENTS} readers at one row per second each for ${PACED_MS / 1000} s: ${p99.toFixed(1)} ms (target ≤ ${P99_TARGET_MS}), ` +
       `errors ${pacedErrors}, lost ${lost}; throughput back to back ${closedRate.toFixed(0)} saves/s (p99 ${percentile(closedMs, 99).toFixed(1)} ms)`,
+  );
+  const scaledMs = scaled.map((o) => o.ms);
+  const scaledP99 = percentile(scaledMs, 99);
+  const scaledErrors = [...scaleWarmUp, ...scaled].filter((o) => !o.ok).length;
+  console.log(
+    `p99 with ${CLIENTS} readers across 2 API processes + 1 worker for ${PACED_MS / 1000} s: ${scaledP99.toFixed(1)} ms (target ≤ ${P99_TARGET_MS}), ` +
+      `errors ${scaledErrors}, lost ${scaledLost}`,
   );
   return {
     name: 'save-row',
@@ -390,5 +304,10 @@ runBenchmark('save-row', 6 * 60_000, async (scratch) => {
     statements_per_save: round(statementsPerSave, 1),
     cpu_ms_per_save_app: round(cpu.app, 2),
     cpu_ms_per_save_pg: round(cpu.pg, 2),
+    two_api_p99: round(scaledP99, 1),
+    two_api_p50: round(percentile(scaledMs, 50), 1),
+    two_api_count: scaled.length,
+    two_api_errors: scaledErrors,
+    two_api_lost: scaledLost,
   };
 });

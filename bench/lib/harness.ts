@@ -143,6 +143,8 @@ export interface Stack {
   demoPassword: string;
   /** The app's database, for set-up in bulk and for checking what was stored. */
   databaseUrl: string;
+  /** The app's environment, for more processes on the same database and storage (startScaleOutProcess). */
+  env: NodeJS.ProcessEnv;
 }
 
 export interface StackOptions {
@@ -214,7 +216,38 @@ export async function startStack(scratch: Scratch, root: string, options: StackO
   console.log(
     `app ready in ${secondsSince(started).toFixed(1)} s: ${baseUrl} (WORKER=${env.WORKER}), PostgreSQL on 127.0.0.1:${cluster.port}, signed in as the seeded lead`,
   );
-  return { baseUrl, app, storageDir, logFile, api, campaignId: campaign.id, demoPassword, databaseUrl: appDatabaseUrl };
+  return { baseUrl, app, storageDir, logFile, api, campaignId: campaign.id, demoPassword, databaseUrl: appDatabaseUrl, env };
+}
+
+/**
+ * One more process of the stack's app on its database and storage, as a scaled-out deployment runs
+ * them: an API server on `port` (WORKER=off, so it takes no jobs) or the job worker without HTTP
+ * (backend/src/cli/worker.ts). Its output goes to the stack's log; it is stopped at the end.
+ */
+export async function startScaleOutProcess(
+  scratch: Scratch,
+  stack: Stack,
+  name: string,
+  role: { api: { port: number } } | { worker: true },
+): Promise<{ proc: Proc; baseUrl: string | null }> {
+  const options = { cwd: repoRoot, output: { file: stack.logFile } };
+  if ('worker' in role) {
+    // The worker has no HTTP to poll; its start-up line in the shared log says it is taking jobs.
+    const before = fs.existsSync(stack.logFile) ? fs.statSync(stack.logFile).size : 0;
+    const proc = startProcess(scratch, name, process.execPath, [backendEntry('cli/worker.js')], { ...options, env: { ...stack.env, WORKER: 'on' } });
+    await waitFor(`the ${name} process`, async () => fs.readFileSync(stack.logFile, 'utf8').slice(before).includes('worker running'), 60_000, () =>
+      proc.running ? undefined : `it ${describeExit(proc.exit!)} before it was ready:\n${tail(stack.logFile, 30)}`,
+    );
+    return { proc, baseUrl: null };
+  }
+  const { port } = role.api;
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const env = { ...stack.env, PORT: String(port), APP_URL: baseUrl, WORKER: 'off' };
+  const proc = startProcess(scratch, name, process.execPath, [backendEntry('main.js')], { ...options, env });
+  await waitFor(`the ${name} process (${baseUrl})`, () => httpOk(healthUrl({ host: '127.0.0.1', port })), 90_000, () =>
+    proc.running ? undefined : `it ${describeExit(proc.exit!)} before it was ready:\n${tail(stack.logFile, 30)}`,
+  );
+  return { proc, baseUrl };
 }
 
 /**
