@@ -1,24 +1,16 @@
 // `npm run bench [-- NAME]`: runs bench/<name>.bench.ts (all, or the one named) and checks that
-// each one ends with the one-line JSON result described in bench/README.md.
+// each one ends with the one-line JSON result described in bench/README.md; at the end, a table of
+// every figure DESIGN.md §8 names with its target and whether it was met (scripts/lib/bench-targets.ts).
 import fs from 'node:fs';
 import path from 'node:path';
 import { repoRoot } from './lib/config';
+import { formatSummary, summarise, type BenchResult } from './lib/bench-targets';
 import { describeExit, Proc, stopAll, succeeded } from './lib/processes';
 
 const benchDir = path.join(repoRoot, 'bench');
 const suffix = '.bench.ts';
 /** A benchmark bounds its own run time; this only catches one that hangs. */
 const hardLimitMs = Number(process.env.BENCH_TIMEOUT_S ?? 1800) * 1000;
-
-interface BenchResult {
-  name: string;
-  value: number;
-  unit: string;
-  stat: string;
-  target: string;
-  ratio?: number;
-  memory_mb?: number;
-}
 
 function available(): string[] {
   if (!fs.existsSync(benchDir)) return [];
@@ -99,6 +91,21 @@ async function main(): Promise<number> {
     } else {
       console.log(JSON.stringify(outcome));
     }
+  }
+  // Every figure DESIGN.md §8 names, beside its target. A missed target does not change the exit
+  // status: that says whether the measurements ran (bench/README.md).
+  const rows = summarise(outcomes);
+  if (rows.length > 0) {
+    console.log('\nfigures against their targets (DESIGN.md §8):');
+    console.log(formatSummary(rows));
+    const judged = rows.filter((r) => r.verdict === 'met' || r.verdict === 'MISSED');
+    const missed = rows.filter((r) => r.verdict === 'MISSED');
+    const unknown = rows.filter((r) => r.verdict === 'bench failed' || r.verdict === 'not measured' || r.verdict === 'not reported');
+    console.log(
+      `${judged.length - missed.length} of ${judged.length} targets met` +
+        (missed.length ? `; missed: ${missed.map((r) => `${r.bench} ${r.figure}`).join(', ')}` : '') +
+        (unknown.length ? `; ${unknown.length} figure(s) without a value` : ''),
+    );
   }
   return failed || stopping ? 1 : 0;
 }
