@@ -2,7 +2,7 @@ import type { CapturedMail } from '@dialsheet/common';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { GENERIC_SERVER_ERROR } from '../../src/core/filters/all-exceptions.filter';
+import { DATABASE_UNAVAILABLE, RETRY_AFTER_SECONDS } from '../../src/core/filters/all-exceptions.filter';
 import {
   bearer,
   createUser,
@@ -192,7 +192,7 @@ describe('when the database goes away', () => {
     await proxy.cut();
   });
 
-  it('health answers 503, other routes a generic 500 without details, and both recover', async () => {
+  it('health and other routes answer 503 (with Retry-After, without details), and both recover', async () => {
     const user = await createUser(t.dataSource);
     const token = await login(t.http, user.email);
     expect((await t.http.get('/api/health')).status).toBe(200);
@@ -205,8 +205,9 @@ describe('when the database goes away', () => {
     expect(Date.now() - started).toBeLessThan(4000);
 
     const failed = await t.http.get('/api/auth/me').set(bearer(token));
-    expect(failed.status).toBe(500);
-    expect(failed.body).toEqual({ statusCode: 500, error: 'Internal Server Error', message: GENERIC_SERVER_ERROR });
+    expect(failed.status).toBe(503);
+    expect(failed.headers['retry-after']).toBe(String(RETRY_AFTER_SECONDS));
+    expect(failed.body).toEqual({ statusCode: 503, error: 'Service Unavailable', message: DATABASE_UNAVAILABLE });
     expect(failed.text).not.toMatch(/ECONNREFUSED|at \w+ \(|node_modules|\.ts:\d+/);
 
     await proxy.restore();
