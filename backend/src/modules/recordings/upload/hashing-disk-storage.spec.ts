@@ -86,6 +86,17 @@ describe('HashingDiskStorage', () => {
     expect(readdirSync(dir)).toEqual([]);
   });
 
+  it('leaves no file when the connection breaks before the file is even open', async () => {
+    const source = new PassThrough();
+    const pending = handle(engine(), source);
+    // At once, in the same tick: the file stream's open has not completed yet.
+    source.destroy(new Error('Request aborted'));
+    await expect(pending).rejects.toThrow('Request aborted');
+    // Had the partial file been removed before its open completed, the open would create it now.
+    await new Promise((r) => setTimeout(r, 50));
+    expect(readdirSync(dir)).toEqual([]);
+  });
+
   it('holds data back while the check runs (nothing past the head reaches the disk)', async () => {
     let release: (type: string) => void = () => undefined;
     const slow = () => new Promise<string>((resolve) => (release = resolve));

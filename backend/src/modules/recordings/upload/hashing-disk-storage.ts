@@ -111,7 +111,8 @@ export class HashingDiskStorage implements StorageEngine {
         done(null, chunk);
       },
     });
-    pipeline(file.stream, counter, inspector, createWriteStream(path, { flags: 'wx', mode: 0o600 })).then(
+    const sink = createWriteStream(path, { flags: 'wx', mode: 0o600 });
+    pipeline(file.stream, counter, inspector, sink).then(
       () =>
         callback(null, {
           path,
@@ -122,10 +123,16 @@ export class HashingDiskStorage implements StorageEngine {
           detectedType: inspector.result,
         }),
       (error: unknown) => {
-        rm(path, { force: true }).then(
-          () => callback(error),
-          () => callback(error),
-        );
+        // The pipeline fails as soon as one stream does, which can be before the file is even
+        // open (a client gone at once): removing it then would race the open that creates it.
+        // So the partial file goes once the file stream has closed, and only then the error.
+        const removePartial = () =>
+          rm(path, { force: true }).then(
+            () => callback(error),
+            () => callback(error),
+          );
+        if (sink.closed) void removePartial();
+        else sink.once('close', () => void removePartial());
       },
     );
   }
