@@ -81,8 +81,13 @@ export interface MediaUrls {
   originalUrl: string;
   /** Null until the poster image is made. */
   posterUrl: string | null;
-  /** ISO 8601 time after which the links stop working. */
+  /** ISO 8601 time after which the links stop working (on the server's clock). */
   expiresAt: string;
+  /**
+   * ISO 8601 time the server signed the links. Their lifetime is expiresAt − issuedAt whatever
+   * the client's clock says, so a browser whose clock is off still renews them in time.
+   */
+  issuedAt: string;
 }
 
 /** Body of the 409 answer to an upload whose bytes are already a recording in the same campaign. */

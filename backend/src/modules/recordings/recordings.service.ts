@@ -239,12 +239,14 @@ export class RecordingsService {
 
   async mediaUrls(user: AuthUser, recordingId: string): Promise<MediaUrls> {
     const recording = await this.requireRecording(user, recordingId);
-    const exp = Math.floor(Date.now() / 1000) + this.config.mediaUrlTtlSeconds;
+    const now = Date.now();
+    const exp = Math.floor(now / 1000) + this.config.mediaUrlTtlSeconds;
     return {
       proxyUrl: recording.proxyKey ? this.signer.url(recording.id, 'proxy', exp) : null,
       originalUrl: this.signer.url(recording.id, 'original', exp),
       posterUrl: recording.posterKey ? this.signer.url(recording.id, 'poster', exp) : null,
       expiresAt: new Date(exp * 1000).toISOString(),
+      issuedAt: new Date(now).toISOString(),
     };
   }
 

@@ -10,8 +10,21 @@ const MIN_REFRESH_MS = 5_000;
 /** Timers cannot wait longer than about 24.8 days; long-lived links are renewed sooner anyway. */
 const MAX_REFRESH_MS = 6 * 3600_000;
 
-export const getMediaUrls = (recordingId: string): Promise<MediaUrls> =>
-  api.post<MediaUrls>(`/recordings/${recordingId}/media-urls`, undefined, { notify: false });
+/**
+ * The links with their times moved onto this browser's clock. The server's times are on its own
+ * clock: a browser a day ahead took fresh links for long dead and asked for new ones every few
+ * seconds (the video reloading each time); one a day behind kept dead links for hours. The
+ * lifetime (expiresAt − issuedAt) is the same on both clocks, so it is counted from arrival here.
+ * Everything that compares expiresAt with Date.now() is then right, whatever the clock says.
+ */
+export function onLocalClock(urls: MediaUrls, receivedAt = Date.now()): MediaUrls {
+  const lifetime = Date.parse(urls.expiresAt) - Date.parse(urls.issuedAt);
+  if (!Number.isFinite(lifetime)) return urls;
+  return { ...urls, issuedAt: new Date(receivedAt).toISOString(), expiresAt: new Date(receivedAt + lifetime).toISOString() };
+}
+
+export const getMediaUrls = async (recordingId: string): Promise<MediaUrls> =>
+  onLocalClock(await api.post<MediaUrls>(`/recordings/${recordingId}/media-urls`, undefined, { notify: false }));
 
 /** Milliseconds until links that expire at `expiresAt` should be replaced. */
 export function mediaUrlsRefreshDelay(expiresAt: string, now = Date.now()): number {
