@@ -10,7 +10,7 @@
 import type { CalibrationChain, CalibrationPoint, CalibrationStep, LinearStep, TableStep, UncertaintyBudget } from '../types/analysis';
 import { standardFlowToMassFactor, resolveStandardConditions } from '../units/standard-flow';
 import { linearConversion, toLibraryUnit, UnitError } from '../units/units';
-import { AnalysisError, assertFiniteNumber } from './errors';
+import { AnalysisError, assertFiniteNumber, describeValue } from './errors';
 import { combineBudget, formatNumber, statedComponent, type CombineOptions, type ComponentInput } from './uncertainty';
 
 export interface CompiledStep {
@@ -154,7 +154,7 @@ function compileTable(step: TableStep, label: string): Pick<CompiledStep, 'apply
 function compileStep(step: CalibrationStep, index: number): CompiledStep {
   if (!step || typeof step !== 'object') throw new AnalysisError(`step ${index + 1} is missing`);
   if (!STEP_KINDS.includes(step.kind)) {
-    throw new AnalysisError(`step ${index + 1}: unknown kind "${String(step.kind)}"; use ${STEP_KINDS.join(', ')}`);
+    throw new AnalysisError(`step ${index + 1}: unknown kind "${describeValue(step.kind)}"; use ${STEP_KINDS.join(', ')}`);
   }
   const label = stepLabel(step, index);
   if (typeof step.inputUnit !== 'string' || step.inputUnit.trim() === '') throw new AnalysisError(`${label}: the input unit is missing`);
@@ -202,7 +202,7 @@ function compileStep(step: CalibrationStep, index: number): CompiledStep {
       break;
     }
     default:
-      throw new AnalysisError(`step ${index + 1}: unknown kind "${String((step as { kind?: unknown }).kind)}"`);
+      throw new AnalysisError(`step ${index + 1}: unknown kind "${describeValue((step as { kind?: unknown }).kind)}"`);
   }
   return { index, label, step, inputUnit: step.inputUnit, outputUnit: step.outputUnit, ...fn };
 }

@@ -17,13 +17,22 @@ export const FLAG_TOKENS = {
 
 export const DEFAULT_PARSE_OPTIONS: ReadingParseOptions = { decimalComma: false };
 
+/** String(value), except that objects such as {"toString": []} from a hand-made request body make it throw. */
+function safeString(value: unknown): string {
+  try {
+    return String(value);
+  } catch {
+    return '';
+  }
+}
+
 /**
  * Parses what a reader typed. Never throws: every input gives a number, a flag or an error with a
  * message. Whitespace around the text is ignored; the returned `text` is the input unchanged.
  */
 export function parseReading(text: string, options: ReadingParseOptions = DEFAULT_PARSE_OPTIONS): ParsedReading {
   if (typeof text !== 'string') {
-    return { kind: 'error', message: 'A reading must be text', text: String(text) };
+    return { kind: 'error', message: 'A reading must be text', text: safeString(text) };
   }
   const s = text.trim();
   if (s === '') return { kind: 'flag', flag: 'blank', text };
