@@ -7,6 +7,7 @@ import type { Server } from 'node:http';
 import { AppModule } from './app.module';
 import { AppConfig } from './config/app-config';
 import { AllExceptionsFilter } from './core/filters/all-exceptions.filter';
+import { BodyShapePipe } from './core/pipes/body-shape.pipe';
 
 export interface CreateAppOptions {
   logger?: LogLevel[] | false;
@@ -61,6 +62,7 @@ export function configureApp(app: INestApplication): void {
     }),
   );
   app.useGlobalPipes(
+    new BodyShapePipe(),
     new ValidationPipe({
       whitelist: true,
       forbidNonWhitelisted: true,

@@ -3,10 +3,11 @@ import { ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsNotEmpty, IsOptional, IsString, MaxLength } from 'class-validator';
 import { trim } from './create-campaign.dto';
+import { IsOmittable } from '../../../core/decorators/is-omittable.decorator';
 
 export class UpdateCampaignDto implements UpdateCampaignRequest {
   @ApiPropertyOptional({ maxLength: 200 })
-  @IsOptional()
+  @IsOmittable()
   @Transform(trim)
   @IsString()
   @IsNotEmpty()
@@ -14,13 +15,13 @@ export class UpdateCampaignDto implements UpdateCampaignRequest {
   name?: string;
 
   @ApiPropertyOptional({ maxLength: 5000 })
-  @IsOptional()
+  @IsOmittable()
   @IsString()
   @MaxLength(5000)
   description?: string;
 
   @ApiPropertyOptional()
-  @IsOptional()
+  @IsOmittable()
   @IsBoolean()
   decimalComma?: boolean;
 

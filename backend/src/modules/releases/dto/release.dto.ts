@@ -2,6 +2,7 @@ import type { CreateReleaseRequest, DeclineReleaseRequest, OpenCorrectionRequest
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { ArrayMaxSize, ArrayMinSize, ArrayUnique, IsArray, IsBoolean, IsNotEmpty, IsOptional, IsString, IsUUID, MaxLength } from 'class-validator';
+import { IsOmittable } from '../../../core/decorators/is-omittable.decorator';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -35,7 +36,7 @@ export class CreateReleaseDto implements CreateReleaseRequest {
 
 export class SignReleaseDto implements SignReleaseRequest {
   @ApiPropertyOptional({ maxLength: 5000 })
-  @IsOptional()
+  @IsOmittable()
   @IsString({ message: 'note must be text' })
   @MaxLength(5000, { message: 'note must be at most 5000 characters' })
   note?: string;

@@ -4,10 +4,11 @@ import { Transform } from 'class-transformer';
 import { IsISO8601, IsNotEmpty, IsOptional, IsString, Matches, MaxLength, ValidateIf } from 'class-validator';
 import { trim } from '../../campaigns/dto/create-campaign.dto';
 import { RUN_DATE_MESSAGE } from './create-run.dto';
+import { IsOmittable } from '../../../core/decorators/is-omittable.decorator';
 
 export class UpdateRunDto implements UpdateRunRequest {
   @ApiPropertyOptional({ maxLength: 200 })
-  @IsOptional()
+  @IsOmittable()
   @Transform(trim)
   @IsString()
   @IsNotEmpty()
@@ -21,21 +22,21 @@ export class UpdateRunDto implements UpdateRunRequest {
   runDate?: string | null;
 
   @ApiPropertyOptional({ maxLength: 1000 })
-  @IsOptional()
+  @IsOmittable()
   @Transform(trim)
   @IsString()
   @MaxLength(1000)
   configuration?: string;
 
   @ApiPropertyOptional({ maxLength: 200 })
-  @IsOptional()
+  @IsOmittable()
   @Transform(trim)
   @IsString()
   @MaxLength(200)
   operator?: string;
 
   @ApiPropertyOptional({ maxLength: 10000 })
-  @IsOptional()
+  @IsOmittable()
   @IsString()
   @MaxLength(10000)
   notes?: string;

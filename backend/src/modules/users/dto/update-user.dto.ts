@@ -1,15 +1,16 @@
 import type { UpdateUserRequest } from '@dialsheet/common';
 import { ApiPropertyOptional } from '@nestjs/swagger';
-import { IsBoolean, IsOptional } from 'class-validator';
+import { IsBoolean } from 'class-validator';
+import { IsOmittable } from '../../../core/decorators/is-omittable.decorator';
 
 export class UpdateUserDto implements UpdateUserRequest {
   @ApiPropertyOptional({ description: 'A disabled account cannot sign in; its tokens stop working.' })
-  @IsOptional()
+  @IsOmittable()
   @IsBoolean()
   disabled?: boolean;
 
   @ApiPropertyOptional({ description: 'Platform administrators manage accounts.' })
-  @IsOptional()
+  @IsOmittable()
   @IsBoolean()
   isAdmin?: boolean;
 }
