@@ -18,7 +18,7 @@ import type {
 } from '../types/analysis';
 import { linearConversion } from '../units/units';
 import { AIR_ENTHALPY_H_KJ_PER_KG, AIR_ENTHALPY_T_K } from './air-enthalpy-table';
-import { AnalysisError, assertFiniteNumber } from './errors';
+import { AnalysisError, assertFiniteNumber, describeValue } from './errors';
 import { DEFAULT_COVERAGE_FACTOR, formatNumber } from './uncertainty';
 
 /** ASHRAE Handbook—Fundamentals (2017) ch. 1: dry-air h = 1.006·t kJ/kg, t in °C. */
@@ -156,7 +156,7 @@ function checkStreams(streams: readonly { id: string; label: string; side: Balan
     if (!s || typeof s.id !== 'string' || s.id === '') throw new AnalysisError('every stream needs an id');
     if (ids.has(s.id)) throw new AnalysisError(`stream id "${s.id}" is used twice`);
     ids.add(s.id);
-    if (s.side !== 'in' && s.side !== 'out') throw new AnalysisError(`stream "${s.label ?? s.id}": side must be "in" or "out", got ${String(s.side)}`);
+    if (s.side !== 'in' && s.side !== 'out') throw new AnalysisError(`stream "${s.label ?? s.id}": side must be "in" or "out", got ${describeValue(s.side)}`);
   }
   if (!streams.some((s) => s.side === 'in')) throw new AnalysisError('the balance has no stream in; add at least one');
   if (!streams.some((s) => s.side === 'out')) throw new AnalysisError('the balance has no stream out; add at least one');

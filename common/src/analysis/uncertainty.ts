@@ -11,7 +11,7 @@ import type {
   UncertaintyBudget,
   UncertaintyDistribution,
 } from '../types/analysis';
-import { AnalysisError, assertFiniteNumber } from './errors';
+import { AnalysisError, assertFiniteNumber, describeValue } from './errors';
 
 export const SQRT3 = Math.sqrt(3);
 export const DEFAULT_COVERAGE_FACTOR = 2;
@@ -51,7 +51,7 @@ export function statedComponent(
   assertFiniteNumber(stated.value, `${name}: uncertainty value`);
   if (stated.value < 0) throw new AnalysisError(`${name}: uncertainty must not be negative, got ${stated.value}`);
   if (stated.basis !== 'absolute' && stated.basis !== 'relative') {
-    throw new AnalysisError(`${name}: uncertainty basis must be "absolute" or "relative" (percent of the value), got ${String(stated.basis)}`);
+    throw new AnalysisError(`${name}: uncertainty basis must be "absolute" or "relative" (percent of the value), got ${describeValue(stated.basis)}`);
   }
   const distribution: UncertaintyDistribution = stated.distribution ?? 'rectangular';
   let divisor: number;
@@ -65,7 +65,7 @@ export function statedComponent(
   } else if (distribution === 'rectangular') {
     divisor = SQRT3;
   } else {
-    throw new AnalysisError(`${name}: distribution must be "normal" or "rectangular", got ${String(distribution)}`);
+    throw new AnalysisError(`${name}: distribution must be "normal" or "rectangular", got ${describeValue(distribution)}`);
   }
   const value = stated.basis === 'relative' ? (Math.abs(quantityValue) * stated.value) / 100 : stated.value;
   const how = stated.basis === 'relative' ? `${stated.value} % of ${formatNumber(quantityValue)} ${unit}` : `${stated.value} ${unit}`;
@@ -126,7 +126,7 @@ export function accuracyComponent(reading: number, channel: ChannelSpec, sensiti
 
 function assertResolution(channel: ChannelSpec): void {
   if (typeof channel.resolution !== 'number' || !Number.isFinite(channel.resolution) || channel.resolution <= 0) {
-    throw new AnalysisError(`the channel's resolution (last displayed digit) must be a number above 0, got ${String(channel.resolution)}`);
+    throw new AnalysisError(`the channel's resolution (last displayed digit) must be a number above 0, got ${describeValue(channel.resolution)}`);
   }
 }
 

@@ -4,6 +4,7 @@
 // use, and the choice moves the mass flow by up to 9 %. Always record the conditions with the meter.
 import type { CustomStandardConditions, StandardConditionId } from '../types/analysis';
 import { productFactor, sameQuantity, UnitError } from './units';
+import { describeValue } from '../analysis/errors';
 
 /**
  * Specific gas constant of dry air, J/(kg K): 8314.32 / 28.9647 (molar mass of dry air 28.9647
@@ -45,10 +46,10 @@ export function resolveStandardConditions(
   }
   const { temperatureC, pressureKPa } = conditions ?? ({} as CustomStandardConditions);
   if (!Number.isFinite(temperatureC) || temperatureC <= -273.15) {
-    throw new UnitError(`standard temperature must be a finite number above −273.15 °C, got ${String(temperatureC)}`);
+    throw new UnitError(`standard temperature must be a finite number above −273.15 °C, got ${describeValue(temperatureC)}`);
   }
   if (!Number.isFinite(pressureKPa) || pressureKPa <= 0) {
-    throw new UnitError(`standard pressure must be a positive number of kPa, got ${String(pressureKPa)}`);
+    throw new UnitError(`standard pressure must be a positive number of kPa, got ${describeValue(pressureKPa)}`);
   }
   return { id: 'custom', label: `${temperatureC} °C, ${pressureKPa} kPa`, temperatureC, pressureKPa };
 }
@@ -56,13 +57,13 @@ export function resolveStandardConditions(
 /** ρ = p / (R·T), kg/m³, for an ideal gas; T in K, p in Pa, R in J/(kg K). */
 export function idealGasDensity(temperatureK: number, pressurePa: number, gasConstant = R_DRY_AIR): number {
   if (!Number.isFinite(temperatureK) || temperatureK <= 0) {
-    throw new UnitError(`absolute temperature must be above 0 K, got ${String(temperatureK)} K`);
+    throw new UnitError(`absolute temperature must be above 0 K, got ${describeValue(temperatureK)} K`);
   }
   if (!Number.isFinite(pressurePa) || pressurePa <= 0) {
-    throw new UnitError(`pressure must be above 0 Pa, got ${String(pressurePa)} Pa`);
+    throw new UnitError(`pressure must be above 0 Pa, got ${describeValue(pressurePa)} Pa`);
   }
   if (!Number.isFinite(gasConstant) || gasConstant <= 0) {
-    throw new UnitError(`gas constant must be above 0 J/(kg K), got ${String(gasConstant)}`);
+    throw new UnitError(`gas constant must be above 0 J/(kg K), got ${describeValue(gasConstant)}`);
   }
   return pressurePa / (gasConstant * temperatureK);
 }
@@ -98,7 +99,7 @@ export function standardFlowToMassFlow(
   massUnit: string,
   conditions: StandardConditionId | CustomStandardConditions,
 ): number {
-  if (!Number.isFinite(flow)) throw new UnitError(`standard flow must be a finite number, got ${String(flow)}`);
+  if (!Number.isFinite(flow)) throw new UnitError(`standard flow must be a finite number, got ${describeValue(flow)}`);
   return flow * standardFlowToMassFactor(flowUnit, massUnit, conditions);
 }
 
