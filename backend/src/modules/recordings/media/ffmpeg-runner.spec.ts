@@ -1,3 +1,7 @@
+import { spawn } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import type { AppConfig } from '../../../config/app-config';
 import { FfmpegRunner, ToolError } from './ffmpeg-runner';
@@ -58,4 +62,36 @@ describe('FfmpegRunner (real ffmpeg and ffprobe)', () => {
       .catch((e: unknown) => e);
     expect(error).toMatchObject({ failure: 'output-too-large' });
   });
+
+  it.runIf(process.platform === 'linux')('takes its tools down with it when the server process is killed outright (SIGKILL)', async () => {
+    // A server of its own: a Node process running the runner with an endless ffmpeg, printing the tool's pid.
+    const module = pathToFileURL(join(__dirname, 'ffmpeg-runner.ts')).href;
+    const script = [
+      `import(${JSON.stringify(module)}).then((m) => {`,
+      '  const { FfmpegRunner } = m.FfmpegRunner ? m : m.default;',
+      "  const runner = new FfmpegRunner({ ffmpegPath: 'ffmpeg', ffprobePath: 'ffprobe' });",
+      "  runner.run('ffmpeg', ['-hide_banner', '-nostdin', '-f', 'lavfi', '-i', 'testsrc2=s=64x64:r=10', '-f', 'null', '-']).catch(() => undefined);",
+      "  setTimeout(() => process.stdout.write(String([...runner.running.keys()][0].pid) + '\\n'), 300);",
+      '});',
+    ].join('\n');
+    const server = spawn(process.execPath, ['--import', 'tsx', '-e', script], { stdio: ['ignore', 'pipe', 'inherit'] });
+    const toolPid = await new Promise<number>((resolve, reject) => {
+      server.stdout.once('data', (chunk: Buffer) => resolve(Number(chunk.toString().trim())));
+      server.once('exit', () => reject(new Error('the server process ended before starting ffmpeg')));
+    });
+    expect(toolPid).toBeGreaterThan(0);
+    // The tool runs, and is ffmpeg itself (setpriv hands its process over to the tool).
+    expect(readFileSync(`/proc/${toolPid}/cmdline`, 'utf8').split('\0')[0]).toMatch(/ffmpeg$/);
+    server.kill('SIGKILL');
+    // Gone, or a zombie left for init to reap: either way no longer running.
+    const running = () => {
+      try {
+        return !/^State:\s+Z/m.test(readFileSync(`/proc/${toolPid}/status`, 'utf8'));
+      } catch {
+        return false;
+      }
+    };
+    for (let i = 0; i < 50 && running(); i++) await new Promise((r) => setTimeout(r, 100));
+    expect(running()).toBe(false);
+  }, 60_000);
 });

@@ -1,5 +1,6 @@
 import { Injectable, Logger, OnApplicationShutdown } from '@nestjs/common';
 import { spawn, type ChildProcess } from 'node:child_process';
+import { accessSync, constants } from 'node:fs';
 import { setPriority } from 'node:os';
 import { AppConfig } from '../../../config/app-config';
 
@@ -11,6 +12,23 @@ const STDERR_TAIL_BYTES = 4096;
 const DEFAULT_MAX_STDOUT_BYTES = 128 * 1024 * 1024;
 /** How long a tool gets to exit after SIGTERM before SIGKILL. */
 const KILL_GRACE_MS = 2000;
+/**
+ * util-linux's setpriv (in every Debian install): `--pdeathsig KILL` makes the kernel kill the
+ * tool when the process that started it dies, even by SIGKILL, when no shutdown hook runs. Without
+ * it a transcode outlives a killed server and competes with the next server's attempt.
+ */
+const SETPRIV = '/usr/bin/setpriv';
+/** setpriv's exit status when it cannot run the tool (as a shell's "command not found"). */
+const SETPRIV_EXEC_FAILED = 127;
+
+function executable(file: string): boolean {
+  try {
+    accessSync(file, constants.X_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 export interface RunOptions {
   /** Stops the tool (SIGTERM, then SIGKILL) when aborted. */
@@ -53,6 +71,8 @@ export class FfmpegRunner implements OnApplicationShutdown {
   private readonly logger = new Logger('FfmpegRunner');
   /** Each running tool with the function that stops it. */
   private readonly running = new Map<ChildProcess, () => void>();
+  /** Whether tools start under setpriv, so they die with this process (Linux only). */
+  private readonly lifeline = process.platform === 'linux' && executable(SETPRIV);
 
   constructor(private readonly config: AppConfig) {}
 
@@ -64,7 +84,9 @@ export class FfmpegRunner implements OnApplicationShutdown {
         reject(new ToolError(tool, 'aborted', null, '', `${tool} was stopped before it started`));
         return;
       }
-      const child = spawn(command, [...args], { stdio: ['ignore', 'pipe', 'pipe'], shell: false });
+      const child = this.lifeline
+        ? spawn(SETPRIV, ['--pdeathsig', 'KILL', '--', command, ...args], { stdio: ['ignore', 'pipe', 'pipe'], shell: false })
+        : spawn(command, [...args], { stdio: ['ignore', 'pipe', 'pipe'], shell: false });
       const stdout: Buffer[] = [];
       let stdoutBytes = 0;
       let stderr = '';
@@ -126,7 +148,11 @@ export class FfmpegRunner implements OnApplicationShutdown {
         else if (failure === 'output-too-large') {
           finish(new ToolError(tool, 'output-too-large', code, tail, `${tool} printed more than ${maxStdout} bytes`));
         } else if (code === 0) finish(null);
-        else {
+        else if (this.lifeline && code === SETPRIV_EXEC_FAILED && /^setpriv: failed to execute/m.test(tail)) {
+          // The tool itself could not be started: the same failure as spawn's ENOENT/EACCES without setpriv.
+          const why = /No such file or directory/.test(tail) ? 'ENOENT' : /Permission denied/.test(tail) ? 'EACCES' : lastLine(tail);
+          finish(new ToolError(tool, 'spawn', null, '', `${tool} could not be started (${command}): ${why}`));
+        } else {
           const how = signal ? `was killed by ${signal}` : `exited with code ${code}`;
           finish(new ToolError(tool, 'exit', code, tail, `${tool} ${how}${tail ? `: ${lastLine(tail)}` : ''}`));
         }
