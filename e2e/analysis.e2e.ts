@@ -17,7 +17,8 @@ import { toTestTime } from '@dialsheet/common';
 import { stableValue } from '../common/src/analysis';
 import { plusMinus } from '../frontend/src/features/analysis/utils/number-format';
 import { channelSpecFor, rawPoints } from '../frontend/src/features/analysis/utils/stable-preview';
-import { assertServerUp, baseUrl, demoPassword, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { assertServerUp, demoPassword, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { api } from './support/api';
 
 // The engineer's run analysis in a real browser on the seeded demo campaign: readings of the flow
 // meter's voltmeter are entered through the API (first pass for every row, a blind second pass for
@@ -27,17 +28,6 @@ import { assertServerUp, baseUrl, demoPassword, launchBrowser, withFailureScreen
 
 const DEMO_CAMPAIGN = 'Heat-recovery core bench test';
 const DEMO_RUN_PREFIX = 'Run 1';
-
-async function api<T>(token: string | null, method: string, route: string, body?: unknown): Promise<T> {
-  const response = await fetch(`${baseUrl}/api${route}`, {
-    method,
-    headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body !== undefined ? { 'content-type': 'application/json' } : {}) },
-    body: body !== undefined ? JSON.stringify(body) : undefined,
-  });
-  const text = await response.text();
-  if (!response.ok) throw new Error(`${method} ${route}: HTTP ${response.status} ${text.slice(0, 400)}`);
-  return (text ? JSON.parse(text) : undefined) as T;
-}
 
 async function tokenFor(email: string): Promise<string> {
   return (await api<LoginResponse>(null, 'POST', '/auth/login', { email, password: demoPassword })).accessToken;

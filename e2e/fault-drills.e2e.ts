@@ -1,6 +1,5 @@
 import { execFile } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import path from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -20,8 +19,8 @@ import {
 } from '@dialsheet/common';
 import { migrateAndSeed, startApp, type AppSettings } from '../scripts/lib/app';
 import { databaseUrl, defineCluster, ensureDatabase, initCluster, query, startCluster, stopCluster, type Cluster } from '../scripts/lib/postgres';
-import { Services, type Proc } from '../scripts/lib/processes';
-import { launchBrowser, withFailureScreenshot } from './support/browser';
+import { freePort, Services, type Proc } from '../scripts/lib/processes';
+import { browserStepSettings, launchBrowser, withFailureScreenshot } from './support/browser';
 
 // Fault drills in a real browser against a server of their own: a throw-away PostgreSQL cluster and
 // an app process on it (started and stopped here, so the shared test server is never touched).
@@ -34,24 +33,6 @@ import { launchBrowser, withFailureScreenshot } from './support/browser';
 const run = promisify(execFile);
 const DB_NAME = 'dialsheet_fault_drills';
 const DAY_MS = 24 * 3600_000;
-
-function sharedSettings(): AppSettings {
-  const raw = process.env.E2E_APP_SETTINGS;
-  if (!raw) throw new Error('E2E_APP_SETTINGS is not set: run these tests through `npm test -- "browser tests"`, which starts the app and passes its settings');
-  return JSON.parse(raw) as AppSettings;
-}
-
-/** A port nobody listens on right now (the kernel's choice). */
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
 
 async function ffmpeg(args: string[]): Promise<void> {
   await run('ffmpeg', ['-hide_banner', '-nostdin', '-loglevel', 'error', '-y', ...args], { maxBuffer: 16 * 1024 * 1024 });
@@ -258,7 +239,7 @@ async function storedReadings(sheetId: string): Promise<Array<{ rowIndex: number
 
 describe('fault drills on a server and database of their own', () => {
   beforeAll(async () => {
-    const shared = sharedSettings();
+    const shared = browserStepSettings();
     const dir = path.join(path.dirname(shared.storageDir), 'fault-drills');
     fs.rmSync(dir, { recursive: true, force: true });
     fs.mkdirSync(dir, { recursive: true });

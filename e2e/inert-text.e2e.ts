@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import type { Channel, LoginResponse, Recording, Release, Run, Sheet } from '@dialsheet/common';
 import { assertServerUp, baseUrl, demoPassword, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { api } from './support/api';
 
 // Issue 7, bad input: names and notes that look like markup or script are shown as the literal
 // text a person typed, never as HTML. The lead creates, through the API, a campaign, a run, a
@@ -31,17 +32,6 @@ const TEXT = {
   releaseNote: `<style id="inert-style">body{display:none}</style><marquee id="inert-marquee">note</marquee>`,
 };
 const IDS = ['inert-campaign', 'inert-script', 'inert-svg', 'inert-bold', 'inert-iframe', 'inert-config', 'inert-channel', 'inert-link', 'inert-release', 'inert-style', 'inert-marquee'];
-
-async function api<T>(token: string | null, method: string, route: string, body?: unknown): Promise<T> {
-  const response = await fetch(`${baseUrl}/api${route}`, {
-    method,
-    headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body !== undefined ? { 'content-type': 'application/json' } : {}) },
-    body: body !== undefined ? JSON.stringify(body) : undefined,
-  });
-  const text = await response.text();
-  if (!response.ok) throw new Error(`${method} ${route}: HTTP ${response.status} ${text.slice(0, 400)}`);
-  return (text ? JSON.parse(text) : undefined) as T;
-}
 
 /** A 3 s test pattern; the comment makes the bytes new each time (the same file twice is refused). */
 async function makeVideo(dir: string): Promise<string> {

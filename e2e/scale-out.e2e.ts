@@ -11,8 +11,9 @@ import type { CampaignMember, Channel, LoginResponse, MediaUrls, Reading, Record
 import { checkStored, SaveClient, type Outcome } from '../bench/lib/save-load';
 import { appEnvironment, backendEntry, migrateAndSeed, type AppSettings } from '../scripts/lib/app';
 import { repoRoot } from '../scripts/lib/config';
-import { describeExit, httpOk, Services, waitFor, type Proc } from '../scripts/lib/processes';
-import { launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { describeExit, freePort, httpOk, Services, waitFor, type Proc } from '../scripts/lib/processes';
+import { browserStepSettings, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { api as apiOf } from './support/api';
 
 // Scale-out (issue 7, part 5): two API processes and one worker process on one database and one
 // storage directory, as a deployment behind a load balancer runs them. The API processes run with
@@ -37,48 +38,14 @@ const LOAD_MS = 60_000;
 const PACE_MIN_MS = 500;
 const PACE_MAX_MS = 1_500;
 
-function browserStepSettings(): AppSettings {
-  const raw = process.env.E2E_APP_SETTINGS;
-  if (!raw) throw new Error('E2E_APP_SETTINGS is not set: run these tests through `npm test -- browser-tests`, which starts PostgreSQL and passes its settings');
-  return JSON.parse(raw) as AppSettings;
-}
-
-/** A port the operating system says is free on 127.0.0.1 right now. */
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen({ port: 0, host: '127.0.0.1', exclusive: true }, () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
-
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 // ---------------------------------------------------------------------------------------------
 // API calls, each to a named process
 
-class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: string,
-    what: string,
-  ) {
-    super(`${what}: HTTP ${status} ${body.slice(0, 400)}`);
-  }
-}
-
-async function api<T>(origin: string, token: string | null, method: string, route: string, body?: unknown): Promise<T> {
-  const response = await fetch(`${origin}/api${route}`, {
-    method,
-    headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body !== undefined ? { 'content-type': 'application/json' } : {}) },
-    body: body !== undefined ? JSON.stringify(body) : undefined,
-  });
-  const text = await response.text();
-  if (!response.ok) throw new ApiError(response.status, text, `${method} ${origin}/api${route}`);
-  return (text ? JSON.parse(text) : undefined) as T;
+/** The API of one named process. */
+function api<T>(origin: string, token: string | null, method: string, route: string, body?: unknown): Promise<T> {
+  return apiOf<T>(token, method, route, body, origin);
 }
 
 async function signInThrough(origin: string, email: string, password: string): Promise<string> {

@@ -6,7 +6,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page, Request } from 'playwright-core';
 import { frameIndexAt, toVideoTime, type Channel, type CampaignMember, type LoginResponse, type Reading, type RecordingFrames, type Sheet, type SheetMismatches, type SheetRow, type SyncMarks } from '@dialsheet/common';
 import { readingsAt, type DisplayKey, type RunTruth } from '../scripts/demo/scenario';
-import { assertServerUp, baseUrl, demoPassword, launchBrowser, withFailureScreenshot } from './support/browser';
+import { assertServerUp, baseUrl, browserStepSettings, demoPassword, launchBrowser, withFailureScreenshot } from './support/browser';
+import { finishByKeyboard } from './support/keyboard';
+import { api, ApiError } from './support/api';
 
 // Reading sheets in the browser on the seeded demo run: the reader types the whole sheet with the
 // keyboard alone, the checker enters blind and resolves the one mismatch they planted, and a
@@ -29,39 +31,12 @@ interface AppSettings {
   demoVideosDir?: string;
 }
 
-function appSettings(): AppSettings {
-  const raw = process.env.E2E_APP_SETTINGS;
-  if (!raw) throw new Error('E2E_APP_SETTINGS is not set: run these tests through `npm test -- "browser tests"`, which starts the app and passes its settings');
-  return JSON.parse(raw) as AppSettings;
-}
-
 const DEMO_CAMPAIGN = 'Heat-recovery core bench test';
 const DEMO_RUN_PREFIX = 'Run 1';
 const DEMO_SHEET = 'Every 5 s, whole run';
 
 // ---------------------------------------------------------------------------------------------
 // API
-
-class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: string,
-    what: string,
-  ) {
-    super(`${what}: HTTP ${status} ${body.slice(0, 400)}`);
-  }
-}
-
-async function api<T>(token: string | null, method: string, route: string, body?: unknown, origin = baseUrl): Promise<T> {
-  const response = await fetch(`${origin}/api${route}`, {
-    method,
-    headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body !== undefined ? { 'content-type': 'application/json' } : {}) },
-    body: body !== undefined ? JSON.stringify(body) : undefined,
-  });
-  const text = await response.text();
-  if (!response.ok) throw new ApiError(response.status, text, `${method} ${route}`);
-  return (text ? JSON.parse(text) : undefined) as T;
-}
 
 const tokens = new Map<string, string>();
 async function tokenFor(email: string): Promise<string> {
@@ -123,7 +98,7 @@ async function waitForReadyRecording(token: string, runId: string): Promise<{ id
 }
 
 async function loadDemo(): Promise<DemoContext> {
-  const settings = appSettings();
+  const settings = browserStepSettings();
   if (!settings.demoVideosDir) throw new Error('E2E_APP_SETTINGS names no demoVideosDir: the browser step generates the demo video there');
   const truth = JSON.parse(fs.readFileSync(path.join(settings.demoVideosDir, 'run-1.truth.json'), 'utf8')) as RunTruth;
   const lead = await tokenFor('lead@demo.test');
@@ -189,17 +164,6 @@ async function typeRow(page: Page, texts: readonly string[]): Promise<void> {
 
 function rowState(page: Page, rowIndex: number): Promise<string | null> {
   return page.getByTestId(`entry-row-${rowIndex}`).getAttribute('data-state');
-}
-
-/** Enter on the last row's last channel opened the finish dialog; Enter once its button has the focus. */
-async function finishByKeyboard(page: Page, pass: 1 | 2): Promise<void> {
-  const dialog = page.getByRole('dialog').filter({ hasText: `Finish pass ${pass}` });
-  await dialog.waitFor();
-  const button = dialog.getByRole('button', { name: `Finish pass ${pass}` });
-  // The button takes the focus once the last row has reached the server.
-  await expect.poll(() => button.evaluate((el) => el === document.activeElement), { timeout: 20_000 }).toBe(true);
-  await page.keyboard.press('Enter');
-  await dialog.waitFor({ state: 'detached', timeout: 20_000 });
 }
 
 function orderedChannels(ctx: DemoContext, sheet: Sheet): Channel[] {
@@ -445,7 +409,7 @@ describe('reading sheets: keyboard entry, blind second pass, mismatch resolution
   }, 240_000);
 
   it('a server killed during entry loses nothing: rows typed meanwhile wait in the browser and reach the restarted server', async () => {
-    const settings = appSettings();
+    const settings = browserStepSettings();
     const port = Number(process.env.E2E_SECOND_PORT ?? settings.port + 2);
     const origin = `http://127.0.0.1:${port}`;
     const lead = await tokenFor('lead@demo.test');

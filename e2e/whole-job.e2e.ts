@@ -28,6 +28,7 @@ import { standardDensity } from '../common/src/units';
 import { trend, type DisplayKey } from '../scripts/demo/scenario';
 import { sig } from '../frontend/src/features/analysis/utils/number-format';
 import { assertServerUp, demoPassword, launchBrowser, withFailureScreenshot, type BrowserSession } from './support/browser';
+import { finishByKeyboard } from './support/keyboard';
 import { api, generateVideo, linkIn, login, resolutionOf, truthAt, waitForMail, type GeneratedVideo } from './support/whole-job-data';
 
 // The whole job once, on fresh data, in a real browser: a lead sets up a new campaign (channels,
@@ -169,15 +170,6 @@ async function typeRow(page: Page, texts: readonly string[]): Promise<void> {
     await page.keyboard.type(text);
     await page.keyboard.press('Enter');
   }
-}
-
-async function finishByKeyboard(page: Page, pass: 1 | 2): Promise<void> {
-  const dialog = page.getByRole('dialog').filter({ hasText: `Finish pass ${pass}` });
-  await dialog.waitFor();
-  const button = dialog.getByRole('button', { name: `Finish pass ${pass}` });
-  await expect.poll(() => button.evaluate((el) => el === document.activeElement), { timeout: 20_000 }).toBe(true);
-  await page.keyboard.press('Enter');
-  await dialog.waitFor({ state: 'detached', timeout: 20_000 });
 }
 
 /** Texts from `values` that the page shows as a number of their own (not inside a longer one). */

@@ -10,20 +10,10 @@ import { backendEntry, healthUrl } from '../../scripts/lib/app';
 import { repoRoot } from '../../scripts/lib/config';
 import { databaseUrl, defineCluster, destroyCluster, ensureDatabase, initCluster, startCluster } from '../../scripts/lib/postgres';
 import { describeExit, httpOk, run, Services, succeeded, waitFor, type Proc, type SpawnOptions } from '../../scripts/lib/processes';
+import type { BenchResult } from '../../scripts/lib/bench-targets';
 import { ApiClient } from './http-client';
 
-/** The result line described in bench/README.md. */
-export interface BenchResult {
-  name: string;
-  value: number;
-  unit: string;
-  stat: string;
-  target: string;
-  ratio?: number;
-  memory_mb?: number;
-  /** Further figures a benchmark reports beside the headline (counts, other percentiles). */
-  [figure: string]: string | number | undefined;
-}
+export type { BenchResult } from '../../scripts/lib/bench-targets';
 
 type Cleanup = () => Promise<void> | void;
 

@@ -3,12 +3,23 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { AppSettings } from '../../scripts/lib/app';
 
 /** The app under test; the server serves both the web app and /api on it. */
 export const baseUrl = (process.env.E2E_BASE_URL ?? 'http://127.0.0.1:3000').replace(/\/+$/, '');
 
 /** Password of the seeded demo accounts. */
 export const demoPassword = process.env.DEMO_PASSWORD ?? 'dialsheet-demo';
+
+/**
+ * The browser step's app settings (database, storage, mail, demo videos), for a test that starts
+ * servers of its own on the same database and storage (restart and scale-out drills).
+ */
+export function browserStepSettings(): AppSettings {
+  const raw = process.env.E2E_APP_SETTINGS;
+  if (!raw) throw new Error('E2E_APP_SETTINGS is not set: run these tests through `npm test -- browser-tests`, which starts the app and passes its settings');
+  return JSON.parse(raw) as AppSettings;
+}
 
 // The distribution's Chromium; we never download a browser.
 const executablePath = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';

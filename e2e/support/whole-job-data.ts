@@ -6,7 +6,8 @@ import { promisify } from 'node:util';
 import type { CapturedMail, LoginResponse } from '@dialsheet/common';
 import { frameAtVideoTime, updateShownOnFrame, type DisplayKey, type RunTruth } from '../../scripts/demo/scenario';
 import type { FrameRegion } from '../../scripts/demo/panel';
-import { baseUrl, demoPassword } from './browser';
+import { api } from './api';
+import { demoPassword } from './browser';
 
 // What the whole-job browser test needs besides the browser: the generated video and its truth,
 // the captured e-mail, and read-only API calls to check what the browser did.
@@ -49,32 +50,10 @@ export function resolutionOf(truth: RunTruth, key: DisplayKey): number {
 // ---------------------------------------------------------------------------------------------
 // API, only to read back what the browser did (and the frame grid the entry screen steps on)
 
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: string,
-    what: string,
-  ) {
-    super(`${what}: HTTP ${status} ${body.slice(0, 400)}`);
-  }
-}
-
-export async function api<T>(token: string, method: 'GET', route: string): Promise<T> {
-  const response = await fetch(`${baseUrl}/api${route}`, { method, headers: { authorization: `Bearer ${token}` } });
-  const text = await response.text();
-  if (!response.ok) throw new ApiError(response.status, text, `${method} ${route}`);
-  return (text ? JSON.parse(text) : undefined) as T;
-}
+export { api, ApiError } from './api';
 
 export async function login(email: string, password = demoPassword): Promise<string> {
-  const response = await fetch(`${baseUrl}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password }),
-  });
-  const text = await response.text();
-  if (!response.ok) throw new ApiError(response.status, text, `sign-in of ${email}`);
-  return (JSON.parse(text) as LoginResponse).accessToken;
+  return (await api<LoginResponse>(null, 'POST', '/auth/login', { email, password })).accessToken;
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -5,17 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { databaseUrl, defineCluster, destroyCluster, ensureDatabase, initCluster, isInitialised, query, runningPort, startCluster, stopCluster, type Cluster } from './postgres';
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
+import { freePort } from './processes';
 
 describe('embedded PostgreSQL cluster', () => {
   let base: string;

@@ -201,6 +201,18 @@ export class Services {
   }
 }
 
+/** A port the operating system says is free on 127.0.0.1 right now (its choice). */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.once('error', reject);
+    server.listen({ port: 0, host: '127.0.0.1', exclusive: true }, () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+  });
+}
+
 export function isPortFree(port: number, host = '127.0.0.1'): Promise<boolean> {
   return new Promise((resolve) => {
     const server = net.createServer();
