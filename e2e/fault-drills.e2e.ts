@@ -209,8 +209,15 @@ async function atRow(page: Page, rowIndex: number, first: Channel): Promise<void
   await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).toBe(inputLabel(first));
 }
 
-async function typeRow(page: Page, rowIndex: number, channels: Channel[]): Promise<void> {
+async function typeRow(page: Page, rowIndex: number, channels: Channel[], { afterFrame = false } = {}): Promise<void> {
   await atRow(page, rowIndex, channels[0]);
+  if (afterFrame) {
+    // A reader types what the row's frame shows, so only once it is on screen (the reading then
+    // stores that frame's time; typed before any frame is shown, it rightly stores none). The
+    // outage drill does not wait: its point is the typed text while the database is down.
+    const frame = frameIndexAt(demo.frameTimes, toVideoTime(demo.sync, rowIndex * 5));
+    await expect.poll(() => page.getByTestId('entry-frame-index').innerText(), { timeout: 15_000 }).toBe(String(frame));
+  }
   for (let i = 0; i < channels.length; i += 1) {
     await page.keyboard.type(cellText(rowIndex, i));
     await page.keyboard.press('Enter');
@@ -370,7 +377,7 @@ describe('fault drills on a server and database of their own', () => {
           await signIn(page, 'reader@demo.test', entryPath(sheet.id));
           const skew = await page.evaluate(() => Date.now());
           expect(Math.abs(skew - Date.now() - offsetMs)).toBeLessThan(60_000);
-          for (const i of [0, 1]) await typeRow(page, i, channels);
+          for (const i of [0, 1]) await typeRow(page, i, channels, { afterFrame: true });
           for (const i of [0, 1]) await expect.poll(() => rowState(page, i)).toBe('saved');
           await expect.poll(() => page.getByTestId('entry-queue-status').innerText()).toBe('All rows saved');
           // Signed video links are renewed by their lifetime on the server's clock, not by a
