@@ -144,7 +144,19 @@ async function choose(page: Page, combobox: string, optionText: string | RegExp)
   await poll(() => shown.count()).toBe(0);
   await page.getByRole('combobox', { name: combobox, exact: true }).click();
   await poll(() => shown.count()).toBe(1);
-  await shown.locator('.ant-select-item-option').filter({ hasText: optionText }).first().click();
+  // A single-choice list closes once an option is taken. A click that lands while the list is
+  // still opening can be missed (seen on a busy machine): the list then stays open, so click again.
+  for (let attempt = 1; ; attempt++) {
+    await shown.locator('.ant-select-item-option').filter({ hasText: optionText }).first().click();
+    const closed = await poll(() => shown.count(), 3_000)
+      .toBe(0)
+      .then(
+        () => true,
+        () => false,
+      );
+    if (closed) return;
+    if (attempt === 3) throw new Error(`the list of "${combobox}" stayed open after choosing ${String(optionText)} three times`);
+  }
 }
 
 async function shownFrame(page: Page, index: number): Promise<void> {
