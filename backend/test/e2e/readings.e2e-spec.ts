@@ -296,4 +296,33 @@ describe('readings', () => {
     expect(replacement.body.message).toMatch(/cannot replace its recording/);
     expect((await call(t.http, 'get', `/api/runs/${run.id}/recording`, f.tokens.lead)).body.status).toBe('ready');
   });
+  it('counts progress on the sheet’s current plan only: entries off a shortened plan or a dropped channel are kept, not counted', async () => {
+    const sheet = await openSheet('Progress on the current plan');
+    // Rows 0 (0 s) and 2 (4 s), both channels: four of six cells.
+    for (const rowIndex of [0, 2]) {
+      const saved = await save(sheet, rowIndex, {
+        pass: 1,
+        rowIndex,
+        readings: [
+          { channelId: channels[0].id, rawText: '21.5', frameTime: 2 + rowIndex * 2 },
+          { channelId: channels[1].id, rawText: '3.2', frameTime: 2 + rowIndex * 2 },
+        ],
+      });
+      expect(saved.status, JSON.stringify(saved.body)).toBe(200);
+    }
+    const progressOf = async () => (await call(t.http, 'get', `/api/sheets/${sheet.id}`, f.tokens.lead)).body.progress;
+    expect(await progressOf()).toEqual({ pass1: { done: 4, total: 6 }, pass2: { done: 0, total: 6 } });
+    // Shortened to rows 0 and 1 (0–2 s): row 2's entries stay stored but no longer count.
+    const shorter = await call(t.http, 'patch', `/api/sheets/${sheet.id}`, f.tokens.lead).send({ endTime: 2 });
+    expect(shorter.status, JSON.stringify(shorter.body)).toBe(200);
+    expect(shorter.body.progress).toEqual({ pass1: { done: 2, total: 4 }, pass2: { done: 0, total: 4 } });
+    // The second channel dropped: one cell of two.
+    const fewer = await call(t.http, 'patch', `/api/sheets/${sheet.id}`, f.tokens.lead).send({ channelIds: [channels[0].id] });
+    expect(fewer.status, JSON.stringify(fewer.body)).toBe(200);
+    expect(await progressOf()).toEqual({ pass1: { done: 1, total: 2 }, pass2: { done: 0, total: 2 } });
+    // Both back: every entry counts again, nothing was lost.
+    const back = await call(t.http, 'patch', `/api/sheets/${sheet.id}`, f.tokens.lead).send({ endTime: 4, channelIds: channels.map((c) => c.id) });
+    expect(back.status, JSON.stringify(back.body)).toBe(200);
+    expect(await progressOf()).toEqual({ pass1: { done: 4, total: 6 }, pass2: { done: 0, total: 6 } });
+  });
 });

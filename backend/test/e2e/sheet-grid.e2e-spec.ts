@@ -1,4 +1,4 @@
-import type { Channel, Reading, Run, Sheet, SheetGrid, SheetGridPass, SheetMismatches, SheetRow } from '@dialsheet/common';
+import { layOutSheetGrid, type Channel, type Reading, type Run, type Sheet, type SheetGrid, type SheetGridPass, type SheetGridWire, type SheetMismatches, type SheetRow } from '@dialsheet/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TestMedia } from '../helpers/media';
 import { campaignFixture, createChannel, createSyncedRun, openAssignedSheet, type Fixture } from '../helpers/recordings';
@@ -73,10 +73,17 @@ describe('sheet grid', () => {
     }
   }
 
-  async function grid(sheet: Sheet, token: string): Promise<SheetGrid> {
+  /** The answer as sent (JSON text of a SheetGridWire) and as the table lays it out. */
+  async function gridAnswer(sheet: Sheet, token: string): Promise<{ text: string; wire: SheetGridWire; grid: SheetGrid }> {
     const res = await call(t.http, 'get', `/api/sheets/${sheet.id}/grid`, token);
-    expect(res.status, JSON.stringify(res.body)).toBe(200);
-    return res.body as SheetGrid;
+    expect(res.status, res.text).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^application\/json/);
+    const wire = JSON.parse(res.text) as SheetGridWire;
+    return { text: res.text, wire, grid: layOutSheetGrid(wire) };
+  }
+
+  async function grid(sheet: Sheet, token: string): Promise<SheetGrid> {
+    return (await gridAnswer(sheet, token)).grid;
   }
 
   async function listed(sheet: Sheet, pass: 1 | 2, token: string): Promise<Reading[]> {
@@ -116,8 +123,21 @@ describe('sheet grid', () => {
     await enter(sheet, 2, f.tokens.checker, { 0: ['21.5', '120'], 1: ['95.1', ''] });
 
     const rows = (await call(t.http, 'get', `/api/sheets/${sheet.id}/rows`, f.tokens.engineer)).body as SheetRow[];
-    const overseen = await grid(sheet, f.tokens.engineer);
+    const overseenAnswer = await gridAnswer(sheet, f.tokens.engineer);
+    const overseen = overseenAnswer.grid;
     expect(overseen.sheetId).toBe(sheet.id);
+    // As sent: entries only (pass 2 has four of six cells), each with its cell index, and the
+    // values outside a limit beside their cells: T1's 95.0 (cell 2) and P1's 450 (cell 5).
+    expect([...(overseenAnswer.wire.pass2?.cell ?? [])].sort()).toEqual([0, 1, 2, 3]);
+    expect(overseenAnswer.wire.pass1?.version).toBeNull();
+    expect([...(overseenAnswer.wire.pass1?.outside ?? [])].sort((a, b) => a[0] - b[0])).toEqual([
+      [2, 95],
+      [5, 450],
+    ]);
+    expect(overseenAnswer.wire.limits).toEqual([
+      { plausibleMin: 5, plausibleMax: 90, operatingMin: null, operatingMax: null },
+      { plausibleMin: null, plausibleMax: null, operatingMin: 0, operatingMax: 400 },
+    ]);
     expect(overseen.testTimes).toEqual(rows.map((r) => r.testTime));
     expect(overseen.testTimes).toEqual([0, 2, 4]);
     expect(overseen.channelIds).toEqual(sheet.channelIds);
@@ -138,12 +158,15 @@ describe('sheet grid', () => {
     expect(overseen.resolutions).toEqual([]);
 
     // The checker, before finishing: their own pass only — no pass 1, no resolutions.
-    const blind = await grid(sheet, f.tokens.checker);
+    const blindAnswer = await gridAnswer(sheet, f.tokens.checker);
+    const blind = blindAnswer.grid;
     expect(blind.pass1).toBeNull();
     expect(blind.resolutions).toBeNull();
     expect(cellsOf(blind, blind.pass2 as SheetGridPass)).toEqual(asListed(await listed(sheet, 2, f.tokens.checker), true));
     expect(blind.pass2?.edit?.version).toEqual([1, 1, 1, 1, null, null]);
-    expect(JSON.stringify(blind)).not.toContain('21.50');
+    // Nothing of pass 1 anywhere in what was sent, not only in what the table shows.
+    expect(blindAnswer.text).not.toContain('21.50');
+    expect(blindAnswer.text).not.toContain('#unreadable');
     // The reader does not see pass 2 until the checker has finished it.
     const reader = await grid(sheet, f.tokens.reader);
     expect(reader.pass2).toBeNull();
@@ -176,12 +199,15 @@ describe('sheet grid', () => {
     const sheet = await openSheet('Grid, lead as checker', leadChecker.id);
     await enter(sheet, 1, f.tokens.reader, { 0: ['19.0', '150'] });
 
-    const blind = await grid(sheet, token);
+    const blindAnswer = await gridAnswer(sheet, token);
+    const blind = blindAnswer.grid;
     expect(blind.pass1).toBeNull();
     expect(blind.resolutions).toBeNull();
+    // Their own pass has no entries yet: sent empty, with room for versions (they may change it).
+    expect(blindAnswer.wire.pass2).toEqual({ cell: [], rawText: [], flag: [], version: [], frameTime: [], outside: null });
     expect(blind.pass2?.rawText).toEqual([null, null, null, null, null, null]);
     expect(blind.pass2?.edit?.version).toEqual([null, null, null, null, null, null]);
-    expect(JSON.stringify(blind)).not.toContain('19.0');
+    expect(blindAnswer.text).not.toContain('19.0');
 
     // A reader of the campaign not assigned to this sheet: both readings routes refuse, so does the grid.
     const otherReader = await createUser(t.dataSource, { name: 'Oli Other-reader' });

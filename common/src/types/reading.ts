@@ -226,6 +226,35 @@ export interface SheetGridEdit {
 }
 
 /**
+ * One pass as `GET /sheets/:id/grid` sends it: only the cells that have an entry, in no
+ * particular order, element `k` of every array being the same entry. The database writes this
+ * straight to JSON (nobody parses it on the way), and `layOutSheetGrid` puts it cell by cell.
+ */
+export interface SheetGridWirePass {
+  /** Cell index of each entry: row × number of channels + channel position. */
+  cell: number[];
+  rawText: string[];
+  flag: (ReadingFlag | null)[];
+  /** Only for a pass the viewer may change (its owner, until they finish it); null otherwise. */
+  version: number[] | null;
+  frameTime: (number | null)[] | null;
+  /** [cell, value] of the entries outside one of their channel's limits; null when there are none. */
+  outside: Array<[number, number]> | null;
+}
+
+/** The grid route's answer; `layOutSheetGrid` turns it into the table's `SheetGrid`. */
+export interface SheetGridWire {
+  sheetId: string;
+  testTimes: number[];
+  channelIds: string[];
+  /** Each channel's limits, in the order of `channelIds` (for the warnings of `outside`). */
+  limits: ChannelLimits[];
+  pass1: SheetGridWirePass | null;
+  pass2: SheetGridWirePass | null;
+  resolutions: Resolution[] | null;
+}
+
+/**
  * What the sheet table shows, in one answer: row times, channel order, the passes the viewer may
  * see and the resolutions when they may read the mismatch list. The same blind rules as the
  * readings and mismatch routes decide what is null here.

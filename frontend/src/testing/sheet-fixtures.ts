@@ -1,4 +1,18 @@
-import type { Channel, MismatchCell, Reading, ReadingPass, Resolution, Sheet, SheetGrid, SheetGridPass, SheetMismatches, SheetRow } from '@dialsheet/common';
+import type {
+  Channel,
+  ChannelLimits,
+  MismatchCell,
+  Reading,
+  ReadingPass,
+  Resolution,
+  Sheet,
+  SheetGrid,
+  SheetGridPass,
+  SheetGridWire,
+  SheetGridWirePass,
+  SheetMismatches,
+  SheetRow,
+} from '@dialsheet/common';
 
 // Wire-shaped sheets, readings and mismatches for component tests of the sheet pages.
 const at = '2026-03-02T09:15:00.000Z';
@@ -171,6 +185,48 @@ export function makeSheetGrid({
     channelIds,
     pass1: layout(pass1, editPass === 1),
     pass2: layout(pass2, editPass === 2),
+    resolutions,
+  };
+}
+
+/**
+ * The grid route's answer as the server sends it (`SheetGridWire`): each pass's entries only, in
+ * reverse order (the server promises none), with their cell index; `layOutSheetGrid` turns it into
+ * what `makeSheetGrid` gives. Limits default to none, so no entry carries a warning.
+ */
+export function makeSheetGridWire({
+  rows,
+  channelIds,
+  pass1,
+  pass2,
+  resolutions = null,
+  editPass = null,
+  limits = channelIds.map(() => ({})),
+}: Parameters<typeof makeSheetGrid>[0] & { limits?: ChannelLimits[] }): SheetGridWire {
+  const width = channelIds.length;
+  const entries = (readings: Reading[] | null, editable: boolean): SheetGridWirePass | null => {
+    if (!readings) return null;
+    const on = readings
+      .map((r) => ({ r, col: channelIds.indexOf(r.channelId) }))
+      .filter(({ r, col }) => col >= 0 && r.rowIndex >= 0 && r.rowIndex < rows.length)
+      .reverse();
+    const outside = on.flatMap(({ r, col }): Array<[number, number]> => (r.value === null ? [] : [[r.rowIndex * width + col, r.value]]));
+    return {
+      cell: on.map(({ r, col }) => r.rowIndex * width + col),
+      rawText: on.map(({ r }) => r.rawText),
+      flag: on.map(({ r }) => r.flag),
+      version: editable ? on.map(({ r }) => r.version) : null,
+      frameTime: editable ? on.map(({ r }) => r.frameTime) : null,
+      outside: outside.length > 0 ? outside : null,
+    };
+  };
+  return {
+    sheetId: SHEET_ID,
+    testTimes: rows.map((r) => r.testTime),
+    channelIds,
+    limits,
+    pass1: entries(pass1, editPass === 1),
+    pass2: entries(pass2, editPass === 2),
     resolutions,
   };
 }

@@ -1,5 +1,5 @@
-import type { PassFinish, Reading, ReadingPass, Resolution, SaveRowResponse, SheetGrid, SheetMismatches } from '@dialsheet/common';
-import { BadRequestException, Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, Query } from '@nestjs/common';
+import type { PassFinish, Reading, ReadingPass, Resolution, SaveRowResponse, SheetMismatches } from '@dialsheet/common';
+import { BadRequestException, Body, Controller, Get, Header, HttpCode, Param, ParseUUIDPipe, Post, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiConflictResponse, ApiOperation, ApiQuery, ApiTags } from '@nestjs/swagger';
 import type { AuthUser } from '../../core/auth-user';
 import { CurrentUser } from '../../core/decorators/current-user.decorator';
@@ -53,11 +53,13 @@ export class ReadingsController {
 
   @Get('grid')
   @ApiOperation({
-    summary: 'The sheet table in one answer: row times, channels, the passes the viewer may see as column-wise arrays, and resolutions',
+    summary: 'The sheet table in one answer: row times, channels and their limits, the entries of the passes the viewer may see as column-wise arrays, and resolutions',
     description:
-      'Same rules as the readings and mismatch routes: a pass or the resolutions the viewer may not see are null (the checker sees pass 1 only after finishing pass 2); 403 when neither pass may be seen.',
+      'A pass holds only the cells with an entry, in no particular order, each with its cell index (row × channels + channel position); common/ layOutSheetGrid lays it out. Same rules as the readings and mismatch routes: a pass or the resolutions the viewer may not see are null (the checker sees pass 1 only after finishing pass 2); 403 when neither pass may be seen.',
   })
-  grid(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string): Promise<SheetGrid> {
+  // The answer is JSON text already (see SheetGridService): sent as it is, labelled as JSON.
+  @Header('Content-Type', 'application/json; charset=utf-8')
+  grid(@CurrentUser() user: AuthUser, @Param('sheetId') sheetId: string): Promise<string> {
     return this.sheetGrid.grid(user, sheetId);
   }
 

@@ -1,4 +1,4 @@
-import { checkLimits, type CampaignRole, type LimitWarning, type ReadingPass, type SheetGrid, type SheetGridPass } from '@dialsheet/common';
+import type { CampaignRole, ChannelLimits, ReadingPass, SheetGridWire, SheetGridWirePass } from '@dialsheet/common';
 import { ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
@@ -15,9 +15,10 @@ import { ResolutionEntity } from './resolution.entity';
 
 // The sheet table's read. The readings route sends one `Reading` object per cell, built from an
 // entity each: for 10 000 rows × 6 channels that is ~18 MB of JSON per pass and most of a page
-// load. Here PostgreSQL hands over each pass as a few JSON arrays (one per column, with each
-// entry's cell index beside it) and Node only puts them in place and finds the cells outside a
-// limit: no entities, no object per cell.
+// load. Here PostgreSQL writes each pass as a few JSON arrays (one per column, with each entry's
+// cell index beside it) and the text goes out as it came: Node neither parses nor re-serialises
+// the 120 000 entries (that cost more than the query). The browser puts them cell by cell with
+// common/'s layOutSheetGrid, which also words the few limit warnings.
 // The blind rules are the readings and mismatch routes' own (readings.service.ts), restated as
 // "may see" answers rather than refusals, because one answer here carries all three.
 
@@ -63,49 +64,6 @@ export function mayEditPass(userId: string, sheet: GridSheet & { pass1FinishedAt
 
 type Limits = Pick<ChannelEntity, 'plausibleMin' | 'plausibleMax' | 'operatingMin' | 'operatingMax'>;
 
-/** One pass as PostgreSQL sends it: entries in no particular order, the same order in every array. */
-interface StoredColumns {
-  /** Cell index (row × channels + channel position) of each entry. */
-  cell: number[];
-  rawText: string[];
-  flag: SheetGridPass['flag'];
-  /** Null unless the viewer may change this pass. */
-  version: number[] | null;
-  frameTime: (number | null)[] | null;
-  /** [cell, value] of the entries outside a limit of their channel; null when there are none. */
-  outside: Array<[number, number]> | null;
-}
-
-/**
- * A pass laid out cell by cell (nulls where nothing is entered) with the warnings the readings
- * route would attach, for the few cells that have any.
- */
-export function layOutPass(stored: StoredColumns, cells: number, channels: readonly Limits[]): SheetGridPass {
-  const rawText = new Array<string | null>(cells).fill(null);
-  const flag = new Array<SheetGridPass['flag'][number]>(cells).fill(null);
-  for (let k = 0; k < stored.cell.length; k++) {
-    const i = stored.cell[k];
-    rawText[i] = stored.rawText[k];
-    flag[i] = stored.flag[k];
-  }
-  let edit: SheetGridPass['edit'] = null;
-  if (stored.version && stored.frameTime) {
-    edit = { version: new Array<number | null>(cells).fill(null), frameTime: new Array<number | null>(cells).fill(null) };
-    for (let k = 0; k < stored.cell.length; k++) {
-      edit.version[stored.cell[k]] = stored.version[k];
-      edit.frameTime[stored.cell[k]] = stored.frameTime[k];
-    }
-  }
-  const warnings: Record<number, LimitWarning[]> = {};
-  const width = channels.length;
-  for (const [i, value] of stored.outside ?? []) {
-    // The messages come from the same function as the readings route's.
-    const found = checkLimits(value, channels[i % width]);
-    if (found.length > 0) warnings[i] = found;
-  }
-  return { rawText, flag, edit, warnings };
-}
-
 @Injectable()
 export class SheetGridService {
   constructor(
@@ -113,7 +71,8 @@ export class SheetGridService {
     private readonly access: CampaignAccessService,
   ) {}
 
-  async grid(user: AuthUser, sheetId: string): Promise<SheetGrid> {
+  /** The grid route's answer (a `SheetGridWire`) as JSON text, ready to send. */
+  async grid(user: AuthUser, sheetId: string): Promise<string> {
     const manager = this.dataSource.manager;
     // As the readings routes: a sheet outside the caller's campaigns is "not found", like an unknown id.
     if (!isUUID(sheetId)) throw new NotFoundException(SHEET_NOT_FOUND);
@@ -179,17 +138,16 @@ export class SheetGridService {
         limit('operatingMax'),
       ],
     )) as Array<{ pass: number; columns: string }>;
-    const byPass = new Map(rows.map((r) => [Number(r.pass), JSON.parse(r.columns) as StoredColumns]));
-    const cells = testTimes.length * channelIds.length;
-    const passOf = (pass: ReadingPass): SheetGridPass | null => {
-      if (!passes.includes(pass)) return null;
+    const byPass = new Map(rows.map((r) => [Number(r.pass), r.columns]));
+    const passText = (pass: ReadingPass): string => {
+      if (!passes.includes(pass)) return 'null';
       const mine = editable.includes(pass);
       // No row for a pass that has no entries yet.
-      const stored = byPass.get(pass) ?? { cell: [], rawText: [], flag: [], version: mine ? [] : null, frameTime: mine ? [] : null, outside: null };
-      return layOutPass(stored, cells, channels);
+      const none: SheetGridWirePass = { cell: [], rawText: [], flag: [], version: mine ? [] : null, frameTime: mine ? [] : null, outside: null };
+      return byPass.get(pass) ?? JSON.stringify(none);
     };
 
-    let resolutions: SheetGrid['resolutions'] = null;
+    let resolutions: SheetGridWire['resolutions'] = null;
     if (mayReadMismatches(user.id, roles, sheet)) {
       const order = new Map(channelIds.map((id, i) => [id, i]));
       const stored = await manager.find(ResolutionEntity, {
@@ -200,6 +158,15 @@ export class SheetGridService {
         .map(toResolution);
     }
 
-    return { sheetId: sheet.id, testTimes, channelIds, pass1: passOf(1), pass2: passOf(2), resolutions };
+    const limits: ChannelLimits[] = channels.map((c) => ({
+      plausibleMin: c.plausibleMin ?? null,
+      plausibleMax: c.plausibleMax ?? null,
+      operatingMin: c.operatingMin ?? null,
+      operatingMax: c.operatingMax ?? null,
+    }));
+    // The small parts serialised here, the passes spliced in as PostgreSQL wrote them; the keys
+    // are those of SheetGridWire.
+    const head: Omit<SheetGridWire, 'pass1' | 'pass2' | 'resolutions'> = { sheetId: sheet.id, testTimes, channelIds, limits };
+    return `${JSON.stringify(head).slice(0, -1)},"pass1":${passText(1)},"pass2":${passText(2)},"resolutions":${JSON.stringify(resolutions)}}`;
   }
 }

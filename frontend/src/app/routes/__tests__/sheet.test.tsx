@@ -17,7 +17,7 @@ import {
   makeRows,
   makeSheet,
   makeSheetChannel,
-  makeSheetGrid,
+  makeSheetGridWire,
   passReadings,
 } from '@/testing/sheet-fixtures';
 
@@ -63,7 +63,7 @@ function renderSheetPage({ userId, roles, sheet, pass1 = [], pass2 = [], mismatc
       'GET /api/sheets/:sheetId/grid': () => {
         if (hidden(1) && hidden(2)) return apiError(403, 'The sheet’s entries are shown to its reader and checker, the Lead and Engineers only');
         return {
-          body: makeSheetGrid({
+          body: makeSheetGridWire({
             rows: makeRows(sheet.rowCount),
             channelIds: sheet.channelIds,
             pass1: hidden(1) ? null : pass1,

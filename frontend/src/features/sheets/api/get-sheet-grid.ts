@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SheetGrid } from '@dialsheet/common';
+import { layOutSheetGrid, type SheetGrid, type SheetGridWire } from '@dialsheet/common';
 import { api } from '@/lib/api-client';
 import type { QueryConfig } from '@/lib/query-client';
 
@@ -15,7 +15,9 @@ export interface SheetGridView {
   withResolutions: boolean;
 }
 
-export const getSheetGrid = (sheetId: string): Promise<SheetGrid> => api.get<SheetGrid>(`/sheets/${sheetId}/grid`, { notify: false });
+/** The server sends each pass's entries as the database wrote them; they are put cell by cell here. */
+export const getSheetGrid = (sheetId: string): Promise<SheetGrid> =>
+  api.get<SheetGridWire>(`/sheets/${sheetId}/grid`, { notify: false }).then(layOutSheetGrid);
 
 /** Requests started before the page knew what the viewer may see, by sheet id. */
 const early = new Map<string, { promise: Promise<SheetGrid>; expires: number }>();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { Reading, Resolution, SheetRow } from '@dialsheet/common';
-import { makeReading, makeResolution, makeRows, makeSheetGrid } from '@/testing/sheet-fixtures';
+import { layOutSheetGrid, type Reading, type Resolution, type SheetRow } from '@dialsheet/common';
+import { makeReading, makeResolution, makeRows, makeSheetGrid, makeSheetGridWire } from '@/testing/sheet-fixtures';
 import { buildTableGrid, cellState, entriesAgree, entryAt, filterRows, withReading, withResolution } from './sheet-grid';
 
 const T1 = 't1';
@@ -104,6 +104,12 @@ describe('sheet grid', () => {
     expect([...grid.resolutions.keys()]).toEqual([`2:${T1}`]);
     expect(cellState(grid, 0, 0)).toBe('agree');
     expect(cellState(grid, 2, 0)).toBe('resolved');
+  });
+
+  it('gets from the route’s answer, laid out, the grid the table reads (the two fixtures agree)', () => {
+    const limits = [{ plausibleMin: 0, plausibleMax: 90 }, { plausibleMin: 0, plausibleMax: 90 }];
+    const plan = { rows, channelIds: [T1, T2], pass1: [...pass1, { ...warned, value: 99 }], pass2, editPass: 2 as const };
+    expect(layOutSheetGrid(makeSheetGridWire({ ...plan, limits }))).toEqual(makeSheetGrid(plan));
   });
 
   it('puts a saved reading and a saved resolution into the server’s grid without touching the rest', () => {
