@@ -130,6 +130,8 @@ describe('sheet grid', () => {
     // values outside a limit beside their cells: T1's 95.0 (cell 2) and P1's 450 (cell 5).
     expect([...(overseenAnswer.wire.pass2?.cell ?? [])].sort()).toEqual([0, 1, 2, 3]);
     expect(overseenAnswer.wire.pass1?.version).toBeNull();
+    expect(overseenAnswer.wire.pass1?.flagged).toEqual([[3, 'unreadable']]);
+    expect(overseenAnswer.wire.pass2?.flagged).toEqual([[3, 'blank']]);
     expect([...(overseenAnswer.wire.pass1?.outside ?? [])].sort((a, b) => a[0] - b[0])).toEqual([
       [2, 95],
       [5, 450],
@@ -204,7 +206,7 @@ describe('sheet grid', () => {
     expect(blind.pass1).toBeNull();
     expect(blind.resolutions).toBeNull();
     // Their own pass has no entries yet: sent empty, with room for versions (they may change it).
-    expect(blindAnswer.wire.pass2).toEqual({ cell: [], rawText: [], flag: [], version: [], frameTime: [], outside: null });
+    expect(blindAnswer.wire.pass2).toEqual({ cell: [], rawText: [], flagged: null, version: [], frameTime: [], outside: null });
     expect(blind.pass2?.rawText).toEqual([null, null, null, null, null, null]);
     expect(blind.pass2?.edit?.version).toEqual([null, null, null, null, null, null]);
     expect(blindAnswer.text).not.toContain('19.0');

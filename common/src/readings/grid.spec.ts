@@ -10,7 +10,7 @@ const limits = [{ plausibleMin: 5, plausibleMax: 90 }, { operatingMin: 0, operat
 const entered: SheetGridWirePass = {
   cell: [4, 0, 2],
   rawText: ['450', '21.5', '#unreadable'],
-  flag: [null, null, 'unreadable'],
+  flagged: [[2, 'unreadable']],
   version: null,
   frameTime: null,
   outside: [[4, 450]],
@@ -28,7 +28,7 @@ describe('layOutSheetGrid', () => {
     expect(grid.pass1?.edit).toBeNull();
     expect(grid.pass2).toBeNull();
     // The same entries in another order give the same grid.
-    const reversed: SheetGridWirePass = { ...entered, cell: [2, 0, 4], rawText: ['#unreadable', '21.5', '450'], flag: ['unreadable', null, null] };
+    const reversed: SheetGridWirePass = { ...entered, cell: [2, 0, 4], rawText: ['#unreadable', '21.5', '450'] };
     expect(layOutSheetGrid(wire(reversed)).pass1).toEqual(grid.pass1);
   });
 
@@ -48,7 +48,7 @@ describe('layOutSheetGrid', () => {
   });
 
   it('lays out a pass with no entries as empty cells', () => {
-    const none: SheetGridWirePass = { cell: [], rawText: [], flag: [], version: [], frameTime: [], outside: null };
+    const none: SheetGridWirePass = { cell: [], rawText: [], flagged: null, version: [], frameTime: [], outside: null };
     const pass = layOutGridPass(none, 6, limits);
     expect(pass.rawText).toEqual([null, null, null, null, null, null]);
     expect(pass.edit?.version).toEqual([null, null, null, null, null, null]);
@@ -59,6 +59,8 @@ describe('layOutSheetGrid', () => {
     expect(() => layOutGridPass({ ...entered, cell: [4, 0, 1.5] }, 6, limits)).toThrow(RangeError);
     expect(() => layOutGridPass({ ...entered, rawText: ['450'] }, 6, limits)).toThrow(/differ in length/);
     expect(() => layOutGridPass({ ...entered, version: [1, 1, 1] }, 6, limits)).toThrow(/differ in length/);
+    expect(() => layOutGridPass({ ...entered, flagged: [[1, 'blank']] }, 6, limits)).toThrow(/cell 1 is flagged but has no entry/);
+    expect(() => layOutGridPass({ ...entered, flagged: [[7, 'blank']] }, 6, limits)).toThrow(/cell 7 is outside/);
     expect(() => layOutSheetGrid({ ...wire(entered), limits: [{}] })).toThrow(/1 channel limits for 3 channels/);
   });
 });

@@ -10,7 +10,7 @@ import { checkLimits } from './limits';
 
 function sameLength(pass: SheetGridWirePass): boolean {
   const n = pass.cell.length;
-  if (pass.rawText.length !== n || pass.flag.length !== n) return false;
+  if (pass.rawText.length !== n) return false;
   if ((pass.version === null) !== (pass.frameTime === null)) return false;
   return pass.version === null || (pass.version.length === n && (pass.frameTime as unknown[]).length === n);
 }
@@ -27,15 +27,22 @@ export function layOutGridPass(pass: SheetGridWirePass, cells: number, limits: r
   const flag = new Array<SheetGridPass['flag'][number]>(cells).fill(null);
   const version = pass.version ? new Array<number | null>(cells).fill(null) : null;
   const frameTime = pass.frameTime ? new Array<number | null>(cells).fill(null) : null;
+  const inGrid = (i: number) => {
+    if (!Number.isInteger(i) || i < 0 || i >= cells) throw new RangeError(`the grid answer is malformed: cell ${String(i)} is outside the ${cells} cells of the sheet`);
+  };
   for (let k = 0; k < pass.cell.length; k++) {
     const i = pass.cell[k];
-    if (!Number.isInteger(i) || i < 0 || i >= cells) throw new RangeError(`the grid answer is malformed: cell ${String(i)} is outside the ${cells} cells of the sheet`);
+    inGrid(i);
     rawText[i] = pass.rawText[k];
-    flag[i] = pass.flag[k];
     if (version && frameTime && pass.version && pass.frameTime) {
       version[i] = pass.version[k];
       frameTime[i] = pass.frameTime[k];
     }
+  }
+  for (const [i, f] of pass.flagged ?? []) {
+    inGrid(i);
+    if (rawText[i] === null) throw new RangeError(`the grid answer is malformed: cell ${i} is flagged but has no entry`);
+    flag[i] = f;
   }
   const warnings: Record<number, LimitWarning[]> = {};
   for (const [i, value] of pass.outside ?? []) {

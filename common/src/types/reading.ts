@@ -234,7 +234,8 @@ export interface SheetGridWirePass {
   /** Cell index of each entry: row × number of channels + channel position. */
   cell: number[];
   rawText: string[];
-  flag: (ReadingFlag | null)[];
+  /** [cell, flag] of the flagged entries (most have none); null when there are none. */
+  flagged: Array<[number, ReadingFlag]> | null;
   /** Only for a pass the viewer may change (its owner, until they finish it); null otherwise. */
   version: number[] | null;
   frameTime: (number | null)[] | null;

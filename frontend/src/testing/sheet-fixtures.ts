@@ -3,6 +3,7 @@ import type {
   ChannelLimits,
   MismatchCell,
   Reading,
+  ReadingFlag,
   ReadingPass,
   Resolution,
   Sheet,
@@ -210,11 +211,12 @@ export function makeSheetGridWire({
       .map((r) => ({ r, col: channelIds.indexOf(r.channelId) }))
       .filter(({ r, col }) => col >= 0 && r.rowIndex >= 0 && r.rowIndex < rows.length)
       .reverse();
+    const flagged = on.flatMap(({ r, col }): Array<[number, ReadingFlag]> => (r.flag === null ? [] : [[r.rowIndex * width + col, r.flag]]));
     const outside = on.flatMap(({ r, col }): Array<[number, number]> => (r.value === null ? [] : [[r.rowIndex * width + col, r.value]]));
     return {
       cell: on.map(({ r, col }) => r.rowIndex * width + col),
       rawText: on.map(({ r }) => r.rawText),
-      flag: on.map(({ r }) => r.flag),
+      flagged: flagged.length > 0 ? flagged : null,
       version: editable ? on.map(({ r }) => r.version) : null,
       frameTime: editable ? on.map(({ r }) => r.frameTime) : null,
       outside: outside.length > 0 ? outside : null,

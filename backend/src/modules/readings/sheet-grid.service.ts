@@ -1,4 +1,4 @@
-import type { CampaignRole, ChannelLimits, ReadingPass, SheetGridWire, SheetGridWirePass } from '@dialsheet/common';
+import type { CampaignRole, ChannelLimits, ReadingPass, SheetGridWire } from '@dialsheet/common';
 import { ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
@@ -101,62 +101,57 @@ export class SheetGridService {
     const editable = passes.filter((p) => mayEditPass(user.id, sheet, p));
     const limit = (key: keyof Limits) => channels.map((c) => c[key] ?? null);
 
-    // One row per visible pass holding its entries on the plan's rows and channels (entries off
-    // the plan, from a sheet shortened later, are left out as the readings route leaves them out).
-    // Serialising each value costs the most here, so only what the viewer needs is sent: versions
-    // and frames for a pass they may change, values only where outside a limit (a comparison with
-    // an absent limit is null, so it picks nothing). The arrays are not sorted (ordering each
-    // aggregate costs a sort apiece); each entry carries its cell index instead. The aggregates of
-    // a group step through its rows together, so element k of every array is the same entry
-    // (PostgreSQL's executor; common practice).
-    const rows = (await manager.query(
-      `SELECT r.pass, json_build_object(
-                'cell', json_agg(r.row_index * $3::int + ch.pos - 1),
-                'rawText', json_agg(r.raw_text),
-                'flag', json_agg(r.flag),
-                'version', json_agg(r.version) FILTER (WHERE r.pass = ANY($6::int[])),
-                'frameTime', json_agg(r.frame_time) FILTER (WHERE r.pass = ANY($6::int[])),
-                'outside', json_agg(json_build_array(r.row_index * $3::int + ch.pos - 1, r.value))
-                  FILTER (WHERE r.value < ch.plausible_min OR r.value > ch.plausible_max OR r.value < ch.operating_min OR r.value > ch.operating_max)
-              )::text AS columns
-         FROM readings r
-         JOIN unnest($4::uuid[], $7::float8[], $8::float8[], $9::float8[], $10::float8[])
-              WITH ORDINALITY AS ch(id, plausible_min, plausible_max, operating_min, operating_max, pos)
-           ON ch.id = r.channel_id
-        WHERE r.sheet_id = $1 AND r.pass = ANY($2::int[]) AND r.row_index < $5::int
-        GROUP BY r.pass`,
-      [
+    // Each visible pass's entries on the plan's rows and channels (entries off the plan, from a
+    // sheet shortened later, are left out as the readings route leaves them out), written by
+    // PostgreSQL as the JSON text of a SheetGridWirePass. Serialising each value costs the most
+    // here, so only what the viewer needs is written: versions and frames for a pass they may
+    // change, flags and values only where there is a flag or a value outside a limit (a comparison
+    // with an absent limit is null, so it picks nothing). The arrays are not sorted (ordering
+    // costs a sort apiece); each entry carries its cell index instead. The aggregates of one
+    // query step through its rows together, so element k of every array is the same entry
+    // (PostgreSQL's executor; common practice). The passes are read side by side, one
+    // connection each.
+    const cell = 'r.row_index * $2::int + ch.pos - 1';
+    const passSql = `SELECT '{"cell":[' || COALESCE(string_agg((${cell})::text, ','), '') || ']'
+         || ',"rawText":' || COALESCE(json_agg(r.raw_text)::text, '[]')
+         || ',"flagged":' || COALESCE((json_agg(json_build_array(${cell}, r.flag)) FILTER (WHERE r.flag IS NOT NULL))::text, 'null')
+         || ',"version":' || COALESCE((json_agg(r.version) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
+         || ',"frameTime":' || COALESCE((json_agg(r.frame_time) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
+         || ',"outside":' || COALESCE((json_agg(json_build_array(${cell}, r.value))
+              FILTER (WHERE r.value < ch.plausible_min OR r.value > ch.plausible_max OR r.value < ch.operating_min OR r.value > ch.operating_max))::text, 'null')
+         || '}' AS columns
+       FROM readings r
+       JOIN unnest($3::uuid[], $6::float8[], $7::float8[], $8::float8[], $9::float8[])
+            WITH ORDINALITY AS ch(id, plausible_min, plausible_max, operating_min, operating_max, pos)
+         ON ch.id = r.channel_id
+      WHERE r.sheet_id = $1 AND r.pass = $10::int AND r.row_index < $4::int`;
+    const passText = async (pass: ReadingPass): Promise<string> => {
+      if (!passes.includes(pass)) return 'null';
+      const [row] = (await manager.query(passSql, [
         sheet.id,
-        passes,
         channelIds.length,
         channelIds,
         testTimes.length,
-        editable,
+        editable.includes(pass),
         limit('plausibleMin'),
         limit('plausibleMax'),
         limit('operatingMin'),
         limit('operatingMax'),
-      ],
-    )) as Array<{ pass: number; columns: string }>;
-    const byPass = new Map(rows.map((r) => [Number(r.pass), r.columns]));
-    const passText = (pass: ReadingPass): string => {
-      if (!passes.includes(pass)) return 'null';
-      const mine = editable.includes(pass);
-      // No row for a pass that has no entries yet.
-      const none: SheetGridWirePass = { cell: [], rawText: [], flag: [], version: mine ? [] : null, frameTime: mine ? [] : null, outside: null };
-      return byPass.get(pass) ?? JSON.stringify(none);
+        pass,
+      ])) as Array<{ columns: string }>;
+      return row.columns;
     };
-
-    let resolutions: SheetGridWire['resolutions'] = null;
-    if (mayReadMismatches(user.id, roles, sheet)) {
+    const resolutionsOf = async (): Promise<SheetGridWire['resolutions']> => {
+      if (!mayReadMismatches(user.id, roles, sheet)) return null;
       const order = new Map(channelIds.map((id, i) => [id, i]));
       const stored = await manager.find(ResolutionEntity, {
         where: { sheetId: sheet.id, rowIndex: LessThan(testTimes.length), channelId: In(channelIds) },
       });
-      resolutions = stored
+      return stored
         .sort((a, b) => a.rowIndex - b.rowIndex || (order.get(a.channelId) ?? 0) - (order.get(b.channelId) ?? 0))
         .map(toResolution);
-    }
+    };
+    const [pass1, pass2, resolutions] = await Promise.all([passText(1), passText(2), resolutionsOf()]);
 
     const limits: ChannelLimits[] = channels.map((c) => ({
       plausibleMin: c.plausibleMin ?? null,
@@ -167,6 +162,6 @@ export class SheetGridService {
     // The small parts serialised here, the passes spliced in as PostgreSQL wrote them; the keys
     // are those of SheetGridWire.
     const head: Omit<SheetGridWire, 'pass1' | 'pass2' | 'resolutions'> = { sheetId: sheet.id, testTimes, channelIds, limits };
-    return `${JSON.stringify(head).slice(0, -1)},"pass1":${passText(1)},"pass2":${passText(2)},"resolutions":${JSON.stringify(resolutions)}}`;
+    return `${JSON.stringify(head).slice(0, -1)},"pass1":${pass1},"pass2":${pass2},"resolutions":${JSON.stringify(resolutions)}}`;
   }
 }
