@@ -7,7 +7,7 @@ import { addMember, bearer, createUser, login, startTestApp, type Http, type Tes
 // The sheet table's compact read must say exactly what the readings and mismatch routes say, to
 // exactly the same people: it replaces them on the sheet page.
 
-function call(http: Http, method: 'get' | 'post' | 'put', path: string, token: string) {
+function call(http: Http, method: 'get' | 'post' | 'put' | 'patch', path: string, token: string) {
   return http[method](path).set(bearer(token));
 }
 
@@ -192,6 +192,37 @@ describe('sheet grid', () => {
     expect(open.resolutions).toEqual(list.cells.flatMap((c) => (c.resolution ? [c.resolution] : [])));
     expect(open.resolutions).toHaveLength(1);
     expect((await grid(sheet, f.tokens.reader)).pass2).not.toBeNull();
+  });
+
+  it('answers a finished sheet as the readings route does after its channels’ limits or its plan change (finished passes are kept, never stale)', async () => {
+    const sheet = await openSheet('Grid of a finished sheet');
+    await enter(sheet, 1, f.tokens.reader, { 0: ['21.5', '120'], 1: ['60.0', '130'], 2: ['22.1', '450'] });
+    expect((await call(t.http, 'post', `/api/sheets/${sheet.id}/passes/1/finish`, f.tokens.reader)).status).toBe(200);
+    await enter(sheet, 2, f.tokens.checker, { 0: ['21.5', '120'], 1: ['60.0', '130'], 2: ['22.1', '450'] });
+    expect((await call(t.http, 'post', `/api/sheets/${sheet.id}/passes/2/finish`, f.tokens.checker)).status).toBe(200);
+
+    const before = await grid(sheet, f.tokens.engineer);
+    expect(Object.keys(before.pass1?.warnings ?? {}).map(Number)).toEqual([5]);
+    // Asked again, the same answer, to the byte.
+    const first = await gridAnswer(sheet, f.tokens.engineer);
+    expect((await gridAnswer(sheet, f.tokens.engineer)).text).toBe(first.text);
+
+    // T1's plausible maximum lowered to 50: its 60.0 (cell 2) is now above it, in both passes.
+    const lowered = await call(t.http, 'patch', `/api/channels/${channels[0].id}`, f.tokens.lead).send({ plausibleMax: 50 });
+    expect(lowered.status, JSON.stringify(lowered.body)).toBe(200);
+    const after = await grid(sheet, f.tokens.engineer);
+    for (const pass of [1, 2] as const) {
+      expect(cellsOf(after, after[`pass${pass}`] as SheetGridPass)).toEqual(asListed(await listed(sheet, pass, f.tokens.engineer)));
+    }
+    expect(Object.keys(after.pass1?.warnings ?? {}).map(Number)).toEqual([2, 5]);
+
+    // The plan shortened to rows 0 and 1: row 2 is left out, as the readings route leaves it out.
+    const shorter = await call(t.http, 'patch', `/api/sheets/${sheet.id}`, f.tokens.lead).send({ endTime: 2 });
+    expect(shorter.status, JSON.stringify(shorter.body)).toBe(200);
+    const short = await grid(sheet, f.tokens.engineer);
+    expect(short.testTimes).toEqual([0, 2]);
+    expect(short.pass2?.rawText).toEqual(['21.5', '120', '60.0', '130']);
+    expect(cellsOf(short, short.pass1 as SheetGridPass)).toEqual(asListed(await listed(sheet, 1, f.tokens.engineer)));
   });
 
   it('keeps a Lead who is also the checker blind, refuses members who may see no pass and hides the sheet from outsiders', async () => {

@@ -2,6 +2,7 @@ import type { CampaignRole, ChannelLimits, ReadingPass, SheetGridWire } from '@d
 import { ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { isUUID } from 'class-validator';
+import { LRUCache } from 'lru-cache';
 import { DataSource, In, LessThan } from 'typeorm';
 import type { AuthUser } from '../../core/auth-user';
 import { CampaignAccessService } from '../campaigns/campaign-access.service';
@@ -64,8 +65,24 @@ export function mayEditPass(userId: string, sheet: GridSheet & { pass1FinishedAt
 
 type Limits = Pick<ChannelEntity, 'plausibleMin' | 'plausibleMax' | 'operatingMin' | 'operatingMax'>;
 
+/** Room for the entries of finished passes kept by one API process (about 40 passes of 60 000 cells). */
+export const FINISHED_PASS_CACHE_BYTES = 64 * 1024 * 1024;
+
 @Injectable()
 export class SheetGridService {
+  /**
+   * The text of finished passes, by everything that shaped it. A finished pass never changes (the
+   * save route refuses any change to it, and nothing clears a finish), so a copy keyed by its
+   * finish time and the plan it was read through (rows, channels, limits) stays true in every API
+   * process, with nothing to invalidate: a changed plan or limit is another key. Reviewing a
+   * checked sheet, the usual reason to open a large table, then skips the database's aggregation.
+   */
+  private readonly finishedPasses = new LRUCache<string, string>({
+    maxSize: FINISHED_PASS_CACHE_BYTES,
+    // JavaScript strings hold UTF-16: two bytes per code unit.
+    sizeCalculation: (text) => Math.max(1, text.length * 2),
+  });
+
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly access: CampaignAccessService,
@@ -127,6 +144,12 @@ export class SheetGridService {
       WHERE r.sheet_id = $1 AND r.pass = $10::int AND r.row_index < $4::int`;
     const passText = async (pass: ReadingPass): Promise<string> => {
       if (!passes.includes(pass)) return 'null';
+      const finishedAt = pass === 1 ? sheet.pass1FinishedAt : sheet.pass2FinishedAt;
+      const key = finishedAt
+        ? JSON.stringify([sheet.id, pass, finishedAt.toISOString(), testTimes.length, channelIds, editable.includes(pass), ...(['plausibleMin', 'plausibleMax', 'operatingMin', 'operatingMax'] as const).map(limit)])
+        : null;
+      const kept = key ? this.finishedPasses.get(key) : undefined;
+      if (kept !== undefined) return kept;
       const [row] = (await manager.query(passSql, [
         sheet.id,
         channelIds.length,
@@ -139,6 +162,7 @@ export class SheetGridService {
         limit('operatingMax'),
         pass,
       ])) as Array<{ columns: string }>;
+      if (key) this.finishedPasses.set(key, row.columns);
       return row.columns;
     };
     const resolutionsOf = async (): Promise<SheetGridWire['resolutions']> => {
