@@ -8,6 +8,21 @@ import { campaignLoader, sheetLoader, signedInLoader } from './route-data';
 
 // Pages load on demand so the sign-in page does not wait for the whole app. Loaders sit outside
 // `lazy` so the router starts a page's requests while its code is still loading (route-data.ts).
+
+/** The pages of the transcription work, opened one from another all day: run, sheet, entry screen. */
+const runPage = () => import('./routes/app/run');
+const sheetPage = () => import('./routes/app/sheet');
+const sheetEntryPage = () => import('./routes/app/sheet-entry');
+
+/**
+ * Fetches and runs the code of those pages ahead of need (call it when the browser is idle), so
+ * following a link to one waits for no download or compile, only for its data. Any failure is
+ * left for the navigation itself to meet and report.
+ */
+export function warmPageCode(): void {
+  for (const load of [runPage, sheetPage, sheetEntryPage]) load().catch(() => undefined);
+}
+
 export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
   return [
     {
@@ -52,7 +67,7 @@ export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
                 },
                 {
                   path: 'runs/:runId',
-                  lazy: () => import('./routes/app/run').then((m) => ({ Component: m.RunRoute })),
+                  lazy: () => runPage().then((m) => ({ Component: m.RunRoute })),
                 },
                 {
                   path: 'runs/:runId/analysis',
@@ -81,11 +96,11 @@ export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
                 {
                   path: 'sheets/:sheetId',
                   loader: sheetLoader(queryClient),
-                  lazy: () => import('./routes/app/sheet').then((m) => ({ Component: m.SheetRoute })),
+                  lazy: () => sheetPage().then((m) => ({ Component: m.SheetRoute })),
                 },
                 {
                   path: 'sheets/:sheetId/entry',
-                  lazy: () => import('./routes/app/sheet-entry').then((m) => ({ Component: m.SheetEntryRoute })),
+                  lazy: () => sheetEntryPage().then((m) => ({ Component: m.SheetEntryRoute })),
                 },
                 {
                   path: 'channels',
