@@ -48,8 +48,15 @@ export function SheetGridView({ label, rows, channels, height, cursorPosition, a
   });
 
   useEffect(() => {
-    if (cursorPosition >= 0 && cursorPosition < rows.length) virtualizer.scrollToIndex(cursorPosition, { align: 'auto' });
-  }, [cursorPosition, rows.length, virtualizer]);
+    if (cursorPosition < 0 || cursorPosition >= rows.length) return;
+    // Every row has the same height, so whether the cursor's row is in full view is known from the
+    // scroll offset the virtualizer keeps; scrolling only when it is not saves the forced layout
+    // of a scroll that moves nothing (as when the table opens on its first row).
+    const top = virtualizer.scrollOffset ?? 0;
+    const start = HEADER_HEIGHT + cursorPosition * ROW_HEIGHT;
+    if (start >= top + HEADER_HEIGHT && start + ROW_HEIGHT <= top + height) return;
+    virtualizer.scrollToIndex(cursorPosition, { align: 'auto' });
+  }, [cursorPosition, height, rows.length, virtualizer]);
 
   const columns = `${ROW_WIDTH}px ${TIME_WIDTH}px repeat(${channels.length}, minmax(${CELL_WIDTH}px, 1fr))`;
   const minWidth = ROW_WIDTH + TIME_WIDTH + CELL_WIDTH * channels.length;
