@@ -9,7 +9,7 @@ import { campaignLoader, sheetLoader, signedInLoader } from './route-data';
 // Pages load on demand so the sign-in page does not wait for the whole app. Loaders sit outside
 // `lazy` so the router starts a page's requests while its code is still loading (route-data.ts).
 
-/** The pages of the transcription work, opened one from another all day: run, sheet, entry screen. */
+/** The pages a reader, checker or engineer moves between most: a run, its sheets, the entry screen. */
 const runPage = () => import('./routes/app/run');
 const sheetPage = () => import('./routes/app/sheet');
 const sheetEntryPage = () => import('./routes/app/sheet-entry');

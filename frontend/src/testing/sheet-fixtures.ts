@@ -136,6 +136,19 @@ export function makeMismatches(cells: MismatchCell[], overrides: Partial<SheetMi
   };
 }
 
+/** What a grid says besides its passes, laid out or as sent. */
+function gridHead(rows: SheetRow[], channelIds: string[], resolutions: Resolution[] | null) {
+  return { sheetId: SHEET_ID, testTimes: rows.map((r) => r.testTime), channelIds, resolutions };
+}
+
+/** The readings that fall on the plan's rows and channels, each with its cell index (row × channels + column). */
+function onPlan(readings: Reading[], rows: SheetRow[], channelIds: string[]): Array<{ r: Reading; i: number }> {
+  return readings.flatMap((r) => {
+    const col = channelIds.indexOf(r.channelId);
+    return col < 0 || r.rowIndex < 0 || r.rowIndex >= rows.length ? [] : [{ r, i: r.rowIndex * channelIds.length + col }];
+  });
+}
+
 /**
  * The sheet table's answer (`GET /sheets/:id/grid`) laid out from readings, as the server lays it
  * out: cell i is row floor(i / channels) and channel i % channels; readings off the plan are left out.
@@ -156,20 +169,16 @@ export function makeSheetGrid({
   /** The pass the viewer may change: it alone carries versions and frames. */
   editPass?: ReadingPass | null;
 }): SheetGrid {
-  const width = channelIds.length;
   const layout = (readings: Reading[] | null, editable: boolean): SheetGridPass | null => {
     if (!readings) return null;
-    const size = rows.length * width;
+    const size = rows.length * channelIds.length;
     const out: SheetGridPass = {
       rawText: new Array<string | null>(size).fill(null),
       flag: new Array<Reading['flag']>(size).fill(null),
       edit: editable ? { version: new Array<number | null>(size).fill(null), frameTime: new Array<number | null>(size).fill(null) } : null,
       warnings: {},
     };
-    for (const r of readings) {
-      const col = channelIds.indexOf(r.channelId);
-      if (col < 0 || r.rowIndex < 0 || r.rowIndex >= rows.length) continue;
-      const i = r.rowIndex * width + col;
+    for (const { r, i } of onPlan(readings, rows, channelIds)) {
       out.rawText[i] = r.rawText;
       out.flag[i] = r.flag;
       if (out.edit) {
@@ -180,14 +189,7 @@ export function makeSheetGrid({
     }
     return out;
   };
-  return {
-    sheetId: SHEET_ID,
-    testTimes: rows.map((r) => r.testTime),
-    channelIds,
-    pass1: layout(pass1, editPass === 1),
-    pass2: layout(pass2, editPass === 2),
-    resolutions,
-  };
+  return { ...gridHead(rows, channelIds, resolutions), pass1: layout(pass1, editPass === 1), pass2: layout(pass2, editPass === 2) };
 }
 
 /**
@@ -196,25 +198,17 @@ export function makeSheetGrid({
  * what `makeSheetGrid` gives. Limits default to none, so no entry carries a warning.
  */
 export function makeSheetGridWire({
-  rows,
-  channelIds,
-  pass1,
-  pass2,
-  resolutions = null,
-  editPass = null,
-  limits = channelIds.map(() => ({})),
+  limits,
+  ...plan
 }: Parameters<typeof makeSheetGrid>[0] & { limits?: ChannelLimits[] }): SheetGridWire {
-  const width = channelIds.length;
+  const { rows, channelIds, pass1, pass2, resolutions = null, editPass = null } = plan;
   const entries = (readings: Reading[] | null, editable: boolean): SheetGridWirePass | null => {
     if (!readings) return null;
-    const on = readings
-      .map((r) => ({ r, col: channelIds.indexOf(r.channelId) }))
-      .filter(({ r, col }) => col >= 0 && r.rowIndex >= 0 && r.rowIndex < rows.length)
-      .reverse();
-    const flagged = on.flatMap(({ r, col }): Array<[number, ReadingFlag]> => (r.flag === null ? [] : [[r.rowIndex * width + col, r.flag]]));
-    const outside = on.flatMap(({ r, col }): Array<[number, number]> => (r.value === null ? [] : [[r.rowIndex * width + col, r.value]]));
+    const on = onPlan(readings, rows, channelIds).reverse();
+    const flagged = on.flatMap(({ r, i }): Array<[number, ReadingFlag]> => (r.flag === null ? [] : [[i, r.flag]]));
+    const outside = on.flatMap(({ r, i }): Array<[number, number]> => (r.value === null ? [] : [[i, r.value]]));
     return {
-      cell: on.map(({ r, col }) => r.rowIndex * width + col),
+      cell: on.map(({ i }) => i),
       rawText: on.map(({ r }) => r.rawText),
       flagged: flagged.length > 0 ? flagged : null,
       version: editable ? on.map(({ r }) => r.version) : null,
@@ -223,12 +217,9 @@ export function makeSheetGridWire({
     };
   };
   return {
-    sheetId: SHEET_ID,
-    testTimes: rows.map((r) => r.testTime),
-    channelIds,
-    limits,
+    ...gridHead(rows, channelIds, resolutions),
+    limits: limits ?? channelIds.map(() => ({})),
     pass1: entries(pass1, editPass === 1),
     pass2: entries(pass2, editPass === 2),
-    resolutions,
   };
 }

@@ -63,7 +63,26 @@ export function mayEditPass(userId: string, sheet: GridSheet & { pass1FinishedAt
   return pass === 1 ? sheet.readerId === userId && !sheet.pass1FinishedAt : sheet.checkerId === userId && !sheet.pass2FinishedAt;
 }
 
-type Limits = Pick<ChannelEntity, 'plausibleMin' | 'plausibleMax' | 'operatingMin' | 'operatingMax'>;
+const CELL = 'r.row_index * $2::int + ch.pos - 1';
+
+/**
+ * One pass of a sheet as the JSON text of a SheetGridWirePass. $1 sheet, $2 channels per row,
+ * $3 channel ids in order, $4 rows, $5 whether the viewer may change the pass, $6–$9 each
+ * channel's plausible and operating limits, $10 the pass.
+ */
+const PASS_SQL = `SELECT '{"cell":[' || COALESCE(string_agg((${CELL})::text, ','), '') || ']'
+     || ',"rawText":' || COALESCE(json_agg(r.raw_text)::text, '[]')
+     || ',"flagged":' || COALESCE((json_agg(json_build_array(${CELL}, r.flag)) FILTER (WHERE r.flag IS NOT NULL))::text, 'null')
+     || ',"version":' || COALESCE((json_agg(r.version) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
+     || ',"frameTime":' || COALESCE((json_agg(r.frame_time) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
+     || ',"outside":' || COALESCE((json_agg(json_build_array(${CELL}, r.value))
+          FILTER (WHERE r.value < ch.plausible_min OR r.value > ch.plausible_max OR r.value < ch.operating_min OR r.value > ch.operating_max))::text, 'null')
+     || '}' AS columns
+   FROM readings r
+   JOIN unnest($3::uuid[], $6::float8[], $7::float8[], $8::float8[], $9::float8[])
+        WITH ORDINALITY AS ch(id, plausible_min, plausible_max, operating_min, operating_max, pos)
+     ON ch.id = r.channel_id
+  WHERE r.sheet_id = $1 AND r.pass = $10::int AND r.row_index < $4::int`;
 
 /** Room for the entries of finished passes kept by one API process (about 40 passes of 60 000 cells). */
 export const FINISHED_PASS_CACHE_BYTES = 64 * 1024 * 1024;
@@ -116,7 +135,13 @@ export class SheetGridService {
     const passes = ([1, 2] as const).filter((p) => (p === 1 ? see1 : see2));
 
     const editable = passes.filter((p) => mayEditPass(user.id, sheet, p));
-    const limit = (key: keyof Limits) => channels.map((c) => c[key] ?? null);
+    const limits: ChannelLimits[] = channels.map((c) => ({
+      plausibleMin: c.plausibleMin ?? null,
+      plausibleMax: c.plausibleMax ?? null,
+      operatingMin: c.operatingMin ?? null,
+      operatingMax: c.operatingMax ?? null,
+    }));
+    const limit = (key: keyof ChannelLimits) => limits.map((l) => l[key] ?? null);
 
     // Each visible pass's entries on the plan's rows and channels (entries off the plan, from a
     // sheet shortened later, are left out as the readings route leaves them out), written by
@@ -128,29 +153,14 @@ export class SheetGridService {
     // query step through its rows together, so element k of every array is the same entry
     // (PostgreSQL's executor; common practice). The passes are read side by side, one
     // connection each.
-    const cell = 'r.row_index * $2::int + ch.pos - 1';
-    const passSql = `SELECT '{"cell":[' || COALESCE(string_agg((${cell})::text, ','), '') || ']'
-         || ',"rawText":' || COALESCE(json_agg(r.raw_text)::text, '[]')
-         || ',"flagged":' || COALESCE((json_agg(json_build_array(${cell}, r.flag)) FILTER (WHERE r.flag IS NOT NULL))::text, 'null')
-         || ',"version":' || COALESCE((json_agg(r.version) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
-         || ',"frameTime":' || COALESCE((json_agg(r.frame_time) FILTER (WHERE $5::boolean))::text, CASE WHEN $5::boolean THEN '[]' ELSE 'null' END)
-         || ',"outside":' || COALESCE((json_agg(json_build_array(${cell}, r.value))
-              FILTER (WHERE r.value < ch.plausible_min OR r.value > ch.plausible_max OR r.value < ch.operating_min OR r.value > ch.operating_max))::text, 'null')
-         || '}' AS columns
-       FROM readings r
-       JOIN unnest($3::uuid[], $6::float8[], $7::float8[], $8::float8[], $9::float8[])
-            WITH ORDINALITY AS ch(id, plausible_min, plausible_max, operating_min, operating_max, pos)
-         ON ch.id = r.channel_id
-      WHERE r.sheet_id = $1 AND r.pass = $10::int AND r.row_index < $4::int`;
     const passText = async (pass: ReadingPass): Promise<string> => {
       if (!passes.includes(pass)) return 'null';
       const finishedAt = pass === 1 ? sheet.pass1FinishedAt : sheet.pass2FinishedAt;
-      const key = finishedAt
-        ? JSON.stringify([sheet.id, pass, finishedAt.toISOString(), testTimes.length, channelIds, editable.includes(pass), ...(['plausibleMin', 'plausibleMax', 'operatingMin', 'operatingMax'] as const).map(limit)])
-        : null;
+      // A finished pass is nobody's to change, so the key needs no viewer.
+      const key = finishedAt ? JSON.stringify([sheet.id, pass, finishedAt.toISOString(), testTimes.length, channelIds, limits]) : null;
       const kept = key ? this.finishedPasses.get(key) : undefined;
       if (kept !== undefined) return kept;
-      const [row] = (await manager.query(passSql, [
+      const [row] = (await manager.query(PASS_SQL, [
         sheet.id,
         channelIds.length,
         channelIds,
@@ -177,12 +187,6 @@ export class SheetGridService {
     };
     const [pass1, pass2, resolutions] = await Promise.all([passText(1), passText(2), resolutionsOf()]);
 
-    const limits: ChannelLimits[] = channels.map((c) => ({
-      plausibleMin: c.plausibleMin ?? null,
-      plausibleMax: c.plausibleMax ?? null,
-      operatingMin: c.operatingMin ?? null,
-      operatingMax: c.operatingMax ?? null,
-    }));
     // The small parts serialised here, the passes spliced in as PostgreSQL wrote them; the keys
     // are those of SheetGridWire.
     const head: Omit<SheetGridWire, 'pass1' | 'pass2' | 'resolutions'> = { sheetId: sheet.id, testTimes, channelIds, limits };

@@ -15,7 +15,14 @@ function setUp(sheetId: string) {
   const network = stubFetch({ 'GET /api/sheets/:sheetId/grid': { body: makeSheetGridWire(plan) } });
   const client = new QueryClient({ defaultOptions: { queries: { staleTime: 30_000, retry: false } } });
   const observe = () => new QueryObserver(client, getSheetGridQueryOptions(sheetId, view));
-  return { network, client, observe, calls: () => network.callsTo('GET /api/sheets/:sheetId/grid').length };
+  const calls = () => network.callsTo('GET /api/sheets/:sheetId/grid').length;
+  /** Starts the early request and waits until its answer is read and laid out. */
+  const prefetchAndSettle = async () => {
+    prefetchSheetGrid(sheetId);
+    await vi.waitFor(() => expect(calls()).toBe(1));
+    await new Promise((resolve) => setTimeout(resolve, 0));
+  };
+  return { client, observe, calls, prefetchAndSettle };
 }
 
 afterEach(() => {
@@ -24,12 +31,8 @@ afterEach(() => {
 
 describe('the early grid request', () => {
   it('fills the table’s query at once when its answer is already in, laid out, without asking again', async () => {
-    const sheetId = 'sheet-settled';
-    const { client, observe, calls } = setUp(sheetId);
-    prefetchSheetGrid(sheetId);
-    await vi.waitFor(() => expect(calls()).toBe(1));
-    // Let the answer be read and laid out.
-    await new Promise((resolve) => setTimeout(resolve, 0));
+    const { client, observe, calls, prefetchAndSettle } = setUp('sheet-settled');
+    await prefetchAndSettle();
 
     const first = observe().getCurrentResult();
     expect(first.status).toBe('success');
@@ -44,11 +47,8 @@ describe('the early grid request', () => {
   });
 
   it('is handed over once: a later query of the same sheet asks the server again', async () => {
-    const sheetId = 'sheet-once';
-    const { client, observe, calls } = setUp(sheetId);
-    prefetchSheetGrid(sheetId);
-    await vi.waitFor(() => expect(calls()).toBe(1));
-    await new Promise((resolve) => setTimeout(resolve, 0));
+    const { client, observe, calls, prefetchAndSettle } = setUp('sheet-once');
+    await prefetchAndSettle();
     expect(observe().getCurrentResult().status).toBe('success');
 
     client.clear();
